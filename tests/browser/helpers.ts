@@ -1,0 +1,60 @@
+// Chromium for the browser tests: Debian's /usr/bin/chromium driven by playwright-core,
+// a fresh profile per launch, pages pointed at the run's built server.
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { chromium, type BrowserContext, type Page } from 'playwright-core'
+
+export const baseURL = process.env.PHASELOOM_BASE_URL ?? ''
+if (!baseURL) {
+  throw new Error('PHASELOOM_BASE_URL is not set: run the browser tests through `npm test` (scripts/test.mjs).')
+}
+
+export const resultsDir = fileURLToPath(new URL('../../test-results/', import.meta.url))
+
+const chromiumArgs = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
+  '--disable-quic',
+]
+
+export interface Browser {
+  context: BrowserContext
+  newPage: () => Promise<Page>
+  close: () => Promise<void>
+}
+
+/** Launch Chromium with a throwaway --user-data-dir; close() removes it. */
+export async function launch(): Promise<Browser> {
+  const userDataDir = mkdtempSync(join(tmpdir(), 'phaseloom-chromium-'))
+  // playwright passes userDataDir to Chromium as --user-data-dir
+  const context = await chromium.launchPersistentContext(userDataDir, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: chromiumArgs,
+    baseURL,
+    viewport: { width: 1280, height: 800 },
+  })
+  return {
+    context,
+    newPage: () => context.newPage(),
+    async close() {
+      await context.close()
+      rmSync(userDataDir, { recursive: true, force: true })
+    },
+  }
+}
+
+/** Save a full-page screenshot as test-results/<name>.png and return its path. */
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(resultsDir, { recursive: true })
+  const path = join(resultsDir, `${name}.png`)
+  await page.screenshot({ path, fullPage: true })
+  return path
+}
