@@ -51,14 +51,26 @@ describe('the start page', () => {
     expect(loaded.join(' ')).toMatch(/IBM Plex Mono/)
   })
 
+  it('saves a screenshot', async () => {
+    const path = await screenshot(page, 'start-page')
+    expect(statSync(path).size).toBeGreaterThan(10_000)
+  })
+
   it('moves focus to the skip link first, for keyboard users', async () => {
     await page.keyboard.press('Tab')
     const focused = await page.evaluate(() => document.activeElement?.textContent?.trim())
     expect(focused).toBe('Skip to content')
   })
+})
 
-  it('saves a screenshot', async () => {
-    const path = await screenshot(page, 'start-page')
-    expect(statSync(path).size).toBeGreaterThan(10_000)
+describe('an address that does not exist', () => {
+  it('shows the not-found page inside the layout, with status 404', async () => {
+    const notFound = await browser.newPage()
+    const response = await notFound.goto('/no-such-page')
+    expect(response?.status()).toBe(404)
+    await expect(notFound.getByRole('heading', { level: 1 }).innerText()).resolves.toBe('No such page')
+    expect(await notFound.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(true)
+    await screenshot(notFound, 'not-found-page')
+    await notFound.close()
   })
 })
