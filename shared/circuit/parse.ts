@@ -1,0 +1,124 @@
+/**
+ * Validation of circuit documents with errors a person can act on: each names the JSON
+ * path of the offending value and says what is wrong with it.
+ */
+import type { z } from 'zod'
+import { CircuitShapeSchema, COMPONENT_KINDS, splitTerminal, terminalsOf, type Circuit } from './schema'
+
+export interface CircuitError {
+  /** Where the problem is, for example `components[2].kva` or `wires[4][1]`; `(document)` for the whole. */
+  path: string
+  message: string
+}
+
+export type ParseResult = { ok: true; circuit: Circuit } | { ok: false; errors: CircuitError[] }
+
+const MAX_ERRORS = 50
+
+/** Formats a path as `components[2].kva`. */
+export function formatPath(path: ReadonlyArray<PropertyKey>): string {
+  let out = ''
+  for (const part of path) {
+    if (typeof part === 'number') out += `[${part}]`
+    else out += out ? `.${String(part)}` : String(part)
+  }
+  return out || '(document)'
+}
+
+function isRecord(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v)
+}
+
+/**
+ * The checks a schema of shapes cannot make: duplicate ids, wires that name a component or
+ * terminal that does not exist, and wires from a terminal to itself. Works on raw input, so
+ * that these errors are reported together with any shape errors.
+ */
+export function crossCheck(doc: unknown): CircuitError[] {
+  if (!isRecord(doc) || !Array.isArray(doc.components)) return []
+  const errors: CircuitError[] = []
+  const byId = new Map<string, { index: number; kind: string; terminals: string[] }>()
+  doc.components.forEach((c, index) => {
+    if (!isRecord(c) || typeof c.id !== 'string') return
+    const seen = byId.get(c.id)
+    if (seen) {
+      errors.push({ path: `components[${index}].id`, message: `duplicate id "${c.id}": components[${seen.index}] already uses it` })
+      return
+    }
+    const kind = typeof c.kind === 'string' ? c.kind : ''
+    byId.set(c.id, { index, kind, terminals: terminalsOf(c as { kind: string }) })
+  })
+  if (!Array.isArray(doc.wires)) return errors
+  doc.wires.forEach((w, index) => {
+    if (!Array.isArray(w) || w.length !== 2) return
+    w.forEach((end, side) => {
+      if (typeof end !== 'string') return
+      const path = `wires[${index}][${side}]`
+      const parts = splitTerminal(end)
+      if (!parts) {
+        errors.push({ path, message: `"${end}" is not a terminal name: write it as ID.TERMINAL, for example "T1.X1"` })
+        return
+      }
+      const [cid, terminal] = parts
+      const comp = byId.get(cid)
+      if (!comp) {
+        errors.push({ path, message: `unknown terminal "${end}": there is no component "${cid}"` })
+      } else if ((COMPONENT_KINDS as readonly string[]).includes(comp.kind) && !comp.terminals.includes(terminal)) {
+        errors.push({ path, message: `unknown terminal "${end}": a ${comp.kind} "${cid}" has ${comp.terminals.join(', ')}` })
+      }
+    })
+    if (typeof w[0] === 'string' && w[0] === w[1]) {
+      errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
+    }
+  })
+  return errors
+}
+
+function issueMessage(issue: z.core.$ZodIssue): string {
+  if (issue.code === 'invalid_union' && 'note' in issue && issue.note === 'No matching discriminator') {
+    return `unknown kind: expected one of ${COMPONENT_KINDS.join(', ')}`
+  }
+  if (issue.code === 'unrecognized_keys') return `unknown field(s): ${issue.keys.join(', ')}`
+  return issue.message
+}
+
+/** The document schema with its cross-reference checks, for `readValidatedBody` and the like. */
+export const CircuitSchema = CircuitShapeSchema.superRefine((doc, ctx) => {
+  for (const e of crossCheck(doc)) ctx.addIssue({ code: 'custom', message: e.message, path: pathFromString(e.path) })
+})
+
+function pathFromString(path: string): (string | number)[] {
+  const out: (string | number)[] = []
+  for (const m of path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) out.push(m[2] !== undefined ? Number(m[2]) : m[1]!)
+  return out
+}
+
+/** Turns any zod error into our error list. */
+export function circuitErrorsFrom(error: z.ZodError): CircuitError[] {
+  return error.issues.map((issue) => ({ path: formatPath(issue.path), message: issueMessage(issue) }))
+}
+
+/**
+ * Validates a circuit document (an object, or JSON text). Returns the typed document with its
+ * defaults filled in, or every error found, each naming its path.
+ */
+export function parseCircuit(input: unknown): ParseResult {
+  let doc = input
+  if (typeof input === 'string') {
+    try {
+      doc = JSON.parse(input)
+    } catch (e) {
+      return { ok: false, errors: [{ path: '(document)', message: `not valid JSON: ${(e as Error).message}` }] }
+    }
+  }
+  if (!isRecord(doc)) return { ok: false, errors: [{ path: '(document)', message: 'a circuit document must be a JSON object' }] }
+  const shape = CircuitShapeSchema.safeParse(doc)
+  const errors = shape.success ? [] : circuitErrorsFrom(shape.error)
+  const seen = new Set(errors.map((e) => `${e.path}\n${e.message}`))
+  for (const e of crossCheck(doc)) {
+    const key = `${e.path}\n${e.message}`
+    if (!seen.has(key)) errors.push(e)
+  }
+  if (errors.length > 0 || !shape.success) return { ok: false, errors: errors.slice(0, MAX_ERRORS) }
+  return { ok: true, circuit: shape.data }
+}

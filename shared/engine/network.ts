@@ -1,0 +1,410 @@
+/**
+ * From a circuit document to network equations, and their solution for one state of the
+ * protective devices.
+ *
+ * Formulation: nodal analysis in which every branch current but the ideal sources' is
+ * eliminated analytically. A transformer unit is an ideal core (equal volts per turn on every
+ * winding, ampere-turns balance) with a series impedance in each winding; eliminating the
+ * core's volts-per-turn gives the unit's nodal admittance
+ *     Y = Σ y_k d_k d_kᵀ − c cᵀ / s,   c = Σ n_k y_k d_k,   s = Σ n_k² y_k,
+ * where d_k is the incidence vector of winding k (+1 at its dotted terminal), y_k its series
+ * admittance and n_k its turns. Supply phases keep their current as an unknown, so an ideal
+ * (zero-impedance) source is allowed.
+ */
+import Complex from 'complex.js'
+import type { Circuit, Component, Transformer } from '../circuit/schema'
+import { terminalsOf } from '../circuit/schema'
+import { ComplexSymmetricSystem, SingularSystemError } from './sparse'
+
+/** Every node's conductance to ground (circuit-format.md: 1 GΩ). */
+export const LEAK_SIEMENS = 1e-9
+/** A voltmeter's resistance (circuit-format.md: 10 MΩ). */
+export const VOLTMETER_OHMS = 10e6
+/** Resistance of a closed breaker pole or an intact fuse: "a few milliohms". */
+export const CLOSED_CONTACT_OHMS = 0.002
+
+export class CircuitSolveError extends Error {
+  constructor(
+    message: string,
+    readonly parts: string[],
+  ) {
+    super(message)
+  }
+}
+
+export interface Winding {
+  /** e.g. "H1-H2", "X1-X2" */
+  name: string
+  /** dotted terminal (H1, X1, X3) and the other */
+  dot: string
+  undot: string
+  a: number
+  b: number
+  turns: number
+  ratedVolts: number
+  ratedAmps: number
+  /** series admittance */
+  yRe: number
+  yIm: number
+}
+
+export interface Unit {
+  id: string
+  spec: Transformer
+  windings: Winding[]
+}
+
+export interface SupplyPhase {
+  supply: string
+  phase: 'A' | 'B' | 'C'
+  star: number
+  line: number
+  emf: Complex
+  z: Complex
+}
+
+export interface SwitchPole {
+  device: string
+  a: number
+  b: number
+}
+
+export interface Topology {
+  circuit: Circuit
+  byId: Map<string, Component>
+  /** node of each terminal "ID.T"; -1 is ground (the reference) */
+  terminalNode: Map<string, number>
+  /** circuit nodes plus the hidden star point of each delta supply */
+  nodeCount: number
+  nodeLabels: string[][]
+  units: Unit[]
+  phases: SupplyPhase[]
+  poles: SwitchPole[]
+  loads: { id: string; a: number; b: number; y: Complex }[]
+  meters: { id: string; a: number; b: number }[]
+}
+
+class UnionFind {
+  parent: Int32Array
+  constructor(n: number) {
+    this.parent = new Int32Array(n).map((_, i) => i)
+  }
+
+  find(x: number): number {
+    const p = this.parent
+    while (p[x] !== x) {
+      p[x] = p[p[x]!]!
+      x = p[x]!
+    }
+    return x
+  }
+
+  union(a: number, b: number): boolean {
+    const ra = this.find(a)
+    const rb = this.find(b)
+    if (ra === rb) return false
+    this.parent[ra] = rb
+    return true
+  }
+}
+
+/** Series impedance of each winding, in ohms at that winding (circuit-format.md). */
+export function windingImpedances(t: Transformer): { primary: Complex; coils: Complex[] } {
+  const zpu = t.impedancePercent / 100
+  const rpu = zpu / Math.sqrt(1 + t.xOverR * t.xOverR)
+  const unit = new Complex(rpu, rpu * t.xOverR)
+  const va = t.kva * 1000
+  const totalCoilVolts = t.secondaryVolts.reduce((s, v) => s + v, 0)
+  const primary = unit.mul((0.5 * t.primaryVolts * t.primaryVolts) / va)
+  const coils = t.secondaryVolts.map((v) => unit.mul((0.5 * v * v) / (va * (v / totalCoilVolts))))
+  return { primary, coils }
+}
+
+/** Rated current of each winding: the primary at the unit's kVA, each coil at its share. */
+export function windingRatedAmps(t: Transformer): { primary: number; coils: number[] } {
+  const totalCoilVolts = t.secondaryVolts.reduce((s, v) => s + v, 0)
+  return {
+    primary: (t.kva * 1000) / t.primaryVolts,
+    coils: t.secondaryVolts.map((v) => (t.kva * 1000 * (v / totalCoilVolts)) / v),
+  }
+}
+
+export function buildTopology(circuit: Circuit): Topology {
+  const byId = new Map<string, Component>()
+  const names: string[] = []
+  const index = new Map<string, number>()
+  for (const c of circuit.components) {
+    byId.set(c.id, c)
+    for (const t of terminalsOf(c)) {
+      index.set(`${c.id}.${t}`, names.length)
+      names.push(`${c.id}.${t}`)
+    }
+  }
+  const GROUND = names.length
+  const uf = new UnionFind(names.length + 1)
+  for (const [from, to] of circuit.wires) {
+    const a = index.get(from)
+    const b = index.get(to)
+    if (a !== undefined && b !== undefined) uf.union(a, b)
+  }
+  for (const c of circuit.components) {
+    if (c.kind === 'ground') uf.union(index.get(`${c.id}.g`)!, GROUND)
+    // circuit-format.md: a wye supply's N is bonded to ground
+    if (c.kind === 'supply' && c.connection === 'wye') uf.union(index.get(`${c.id}.N`)!, GROUND)
+  }
+  const groundRoot = uf.find(GROUND)
+  const rootNode = new Map<number, number>()
+  const nodeLabels: string[][] = []
+  const terminalNode = new Map<string, number>()
+  names.forEach((name, i) => {
+    const root = uf.find(i)
+    let node = -1
+    if (root !== groundRoot) {
+      node = rootNode.get(root) ?? -1
+      if (node < 0) {
+        node = nodeLabels.length
+        rootNode.set(root, node)
+        nodeLabels.push([])
+      }
+      nodeLabels[node]!.push(name)
+    }
+    terminalNode.set(name, node)
+  })
+  const at = (id: string, t: string) => terminalNode.get(`${id}.${t}`)!
+
+  const units: Unit[] = []
+  const phases: SupplyPhase[] = []
+  const poles: SwitchPole[] = []
+  const loads: Topology['loads'] = []
+  const meters: Topology['meters'] = []
+  for (const c of circuit.components) {
+    switch (c.kind) {
+      case 'supply': {
+        let star = -1
+        if (c.connection === 'delta') {
+          // a delta source is modelled by its wye equivalent behind the same per-phase
+          // impedance, the star point floating: identical line-to-line phasors, no neutral
+          star = nodeLabels.length
+          nodeLabels.push([`${c.id} (star point)`])
+        }
+        const vPhase = c.lineVolts / Math.sqrt(3)
+        // circuit-format.md: V(A−N) at 0°, V(B−N) at −120°, V(C−N) at +120° for ABC
+        const angles = c.rotation === 'ABC' ? { A: 0, B: -120, C: 120 } : { A: 0, B: 120, C: -120 }
+        for (const phase of ['A', 'B', 'C'] as const) {
+          phases.push({
+            supply: c.id,
+            phase,
+            star,
+            line: at(c.id, phase),
+            emf: Complex({ abs: vPhase, arg: (angles[phase] * Math.PI) / 180 }),
+            z: new Complex(c.sourceOhms.r, c.sourceOhms.x),
+          })
+        }
+        break
+      }
+      case 'transformer': {
+        const z = windingImpedances(c)
+        const rated = windingRatedAmps(c)
+        const gain = 1 + c.compensationPercent / 100
+        const windings: Winding[] = []
+        const add = (name: string, dot: string, undot: string, turns: number, volts: number, amps: number, zw: Complex) => {
+          const y = zw.inverse()
+          windings.push({ name, dot, undot, a: at(c.id, dot), b: at(c.id, undot), turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
+        }
+        add('H1-H2', 'H1', 'H2', c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
+        add('X1-X2', 'X1', 'X2', c.secondaryVolts[0]! * gain, c.secondaryVolts[0]!, rated.coils[0]!, z.coils[0]!)
+        if (c.secondaryVolts.length === 2) {
+          add('X3-X4', 'X3', 'X4', c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
+        }
+        units.push({ id: c.id, spec: c, windings })
+        break
+      }
+      case 'breaker':
+        for (let p = 1; p <= c.poles; p++) poles.push({ device: c.id, a: at(c.id, `L${p}`), b: at(c.id, `T${p}`) })
+        break
+      case 'fuse':
+        poles.push({ device: c.id, a: at(c.id, 'a'), b: at(c.id, 'b') })
+        break
+      case 'load': {
+        const z = typeof c.ohms === 'number' ? new Complex(c.ohms, 0) : new Complex(c.ohms.r, c.ohms.x)
+        loads.push({ id: c.id, a: at(c.id, 'a'), b: at(c.id, 'b'), y: z.inverse() })
+        break
+      }
+      case 'voltmeter':
+        meters.push({ id: c.id, a: at(c.id, 'a'), b: at(c.id, 'b') })
+        break
+    }
+  }
+  const topo: Topology = { circuit, byId, terminalNode, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters }
+  checkSourceLoops(topo)
+  return topo
+}
+
+/** Ideal (zero-impedance) supply phases that close a loop have no solution: say which. */
+function checkSourceLoops(topo: Topology) {
+  const uf = new UnionFind(topo.nodeCount + 1)
+  const key = (n: number) => (n < 0 ? topo.nodeCount : n)
+  const seen: SupplyPhase[] = []
+  for (const ph of topo.phases) {
+    if (ph.z.abs() > 0) continue
+    seen.push(ph)
+    if (!uf.union(key(ph.star), key(ph.line))) {
+      const parts = [...new Set(seen.map((p) => p.supply))]
+      const where = ph.line >= 0 ? topo.nodeLabels[ph.line]!.join(', ') : 'ground'
+      throw new CircuitSolveError(
+        `a loop of zero-impedance supply phases with nothing to limit the current: ${ph.supply}.${ph.phase} closes it at ${where}. ` +
+          `Remove the jumper that ties supply lines together, or give the supply a source impedance.`,
+        parts,
+      )
+    }
+  }
+}
+
+export interface UnitSolution {
+  id: string
+  /** volts per turn of the core */
+  eRe: number
+  eIm: number
+  /** winding currents into the dotted terminal */
+  current: { re: number; im: number }[]
+}
+
+export interface StageSolution {
+  vRe: Float64Array
+  vIm: Float64Array
+  units: UnitSolution[]
+  /** supply phase currents out of the line terminal, in topology order */
+  phaseCurrent: { re: number; im: number }[]
+  /** current through each conducting switch pole (0 for open), in topology order */
+  poleCurrent: { re: number; im: number }[]
+}
+
+/** Solves the network with the given breakers and fuses open (removed). */
+export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolution {
+  const n = topo.nodeCount
+  const sys = new ComplexSymmetricSystem(n + topo.phases.length, n)
+  for (let i = 0; i < n; i++) sys.add(i, i, LEAK_SIEMENS, 0)
+
+  topo.phases.forEach((ph, k) => {
+    // row of the phase current I (out of the line terminal): V(star) − V(line) − Z·I = −E
+    const row = n + k
+    if (ph.line >= 0) sys.add(row, ph.line, -1, 0)
+    if (ph.star >= 0) sys.add(row, ph.star, 1, 0)
+    sys.add(row, row, -ph.z.re, -ph.z.im)
+    sys.addRhs(row, -ph.emf.re, -ph.emf.im)
+  })
+  const gClosed = 1 / CLOSED_CONTACT_OHMS
+  for (const p of topo.poles) if (!open.has(p.device)) sys.addAdmittance(p.a, p.b, gClosed, 0)
+  for (const l of topo.loads) sys.addAdmittance(l.a, l.b, l.y.re, l.y.im)
+  for (const m of topo.meters) sys.addAdmittance(m.a, m.b, 1 / VOLTMETER_OHMS, 0)
+  for (const u of topo.units) stampUnit(sys, u)
+
+  let x: { re: Float64Array; im: Float64Array }
+  try {
+    x = sys.solve()
+  } catch (e) {
+    if (e instanceof SingularSystemError) throw singularError(topo, e.unknown)
+    throw e
+  }
+  const vRe = x.re.subarray(0, n)
+  const vIm = x.im.subarray(0, n)
+  const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [vRe[node]!, vIm[node]!])
+
+  const units = topo.units.map((u) => unitSolution(u, V))
+  const phaseCurrent = topo.phases.map((_, k) => ({ re: x.re[n + k]!, im: x.im[n + k]! }))
+  const poleCurrent = topo.poles.map((p) => {
+    if (open.has(p.device)) return { re: 0, im: 0 }
+    const [ar, ai] = V(p.a)
+    const [br, bi] = V(p.b)
+    return { re: (ar - br) * gClosed, im: (ai - bi) * gClosed }
+  })
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(vRe[i]!) || !Number.isFinite(vIm[i]!)) throw singularError(topo, i)
+  }
+  return { vRe, vIm, units, phaseCurrent, poleCurrent }
+}
+
+function stampUnit(sys: ComplexSymmetricSystem, u: Unit) {
+  // c = Σ n_k y_k d_k as (node, coefficient) pairs; s = Σ n_k² y_k
+  const cNode: number[] = []
+  const cRe: number[] = []
+  const cIm: number[] = []
+  let sRe = 0
+  let sIm = 0
+  const addC = (node: number, re: number, im: number) => {
+    if (node < 0) return
+    const i = cNode.indexOf(node)
+    if (i < 0) {
+      cNode.push(node)
+      cRe.push(re)
+      cIm.push(im)
+    } else {
+      cRe[i]! += re
+      cIm[i]! += im
+    }
+  }
+  for (const w of u.windings) {
+    sys.addAdmittance(w.a, w.b, w.yRe, w.yIm)
+    addC(w.a, w.turns * w.yRe, w.turns * w.yIm)
+    addC(w.b, -w.turns * w.yRe, -w.turns * w.yIm)
+    sRe += w.turns * w.turns * w.yRe
+    sIm += w.turns * w.turns * w.yIm
+  }
+  const sm = sRe * sRe + sIm * sIm
+  const invRe = sRe / sm
+  const invIm = -sIm / sm
+  for (let p = 0; p < cNode.length; p++) {
+    // −c_p / s
+    const qr = -(cRe[p]! * invRe - cIm[p]! * invIm)
+    const qi = -(cRe[p]! * invIm + cIm[p]! * invRe)
+    for (let q = p; q < cNode.length; q++) {
+      sys.add(cNode[p]!, cNode[q]!, qr * cRe[q]! - qi * cIm[q]!, qr * cIm[q]! + qi * cRe[q]!)
+    }
+  }
+}
+
+function unitSolution(u: Unit, V: (node: number) => [number, number]): UnitSolution {
+  let numRe = 0
+  let numIm = 0
+  let sRe = 0
+  let sIm = 0
+  const drop = u.windings.map((w) => {
+    const [ar, ai] = V(w.a)
+    const [br, bi] = V(w.b)
+    return [ar - br, ai - bi] as const
+  })
+  u.windings.forEach((w, k) => {
+    const [dr, di] = drop[k]!
+    numRe += w.turns * (w.yRe * dr - w.yIm * di)
+    numIm += w.turns * (w.yRe * di + w.yIm * dr)
+    sRe += w.turns * w.turns * w.yRe
+    sIm += w.turns * w.turns * w.yIm
+  })
+  const sm = sRe * sRe + sIm * sIm
+  const eRe = (numRe * sRe + numIm * sIm) / sm
+  const eIm = (numIm * sRe - numRe * sIm) / sm
+  const current = u.windings.map((w, k) => {
+    const [dr, di] = drop[k]!
+    const ur = dr - w.turns * eRe
+    const ui = di - w.turns * eIm
+    return { re: w.yRe * ur - w.yIm * ui, im: w.yRe * ui + w.yIm * ur }
+  })
+  return { id: u.id, eRe, eIm, current }
+}
+
+function singularError(topo: Topology, unknown: number): CircuitSolveError {
+  let where = 'the network'
+  let parts: string[] = []
+  if (unknown >= 0 && unknown < topo.nodeCount) {
+    const labels = topo.nodeLabels[unknown]!
+    where = labels.join(', ')
+    parts = [...new Set(labels.map((l) => l.split('.')[0]!.split(' ')[0]!))]
+  } else if (unknown >= topo.nodeCount) {
+    const ph = topo.phases[unknown - topo.nodeCount]
+    if (ph) {
+      where = `${ph.supply}.${ph.phase}`
+      parts = [ph.supply]
+    }
+  }
+  return new CircuitSolveError(`the circuit has no unique solution at ${where}: look for a loop with nothing to limit its current`, parts)
+}

@@ -1,0 +1,234 @@
+/**
+ * solve(document) → the settled result of circuit-format.md: solve, find the protective
+ * device that operates first, open it, solve again, until nothing more operates.
+ */
+import { parseCircuit, type CircuitError } from '../circuit/parse'
+import type { Circuit } from '../circuit/schema'
+import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
+import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
+import { buildTopology, solveStage, type StageSolution, type Topology } from './network'
+import { operatingTime, type DeviceKind } from './protection'
+import type { BankSummary, ClosingCheck, DeviceReading, Hazard, ProtectionEvent, Reading, SolveResult } from './types'
+
+export class CircuitValidationError extends Error {
+  constructor(readonly errors: CircuitError[]) {
+    super(`invalid circuit document: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`)
+  }
+}
+
+const round = (x: number, digits: number) => {
+  const k = 10 ** digits
+  const r = Math.round(x * k) / k
+  return r === 0 ? 0 : r
+}
+
+/** Angle in degrees, in (−180, 180]. */
+export function degreesOf(re: number, im: number): number {
+  let d = (Math.atan2(im, re) * 180) / Math.PI
+  if (d <= -180) d += 360
+  return d
+}
+
+function reading(re: number, im: number): Reading {
+  const volts = Math.hypot(re, im)
+  if (volts < 1e-6) return { volts: 0, degrees: 0 }
+  const deg = round(degreesOf(re, im), 2)
+  return { volts: round(volts, 4), degrees: deg === -180 ? 180 : deg }
+}
+
+export interface SolveDetail {
+  topo: Topology
+  /** the state as energized, before any protective device operated */
+  initial: StageSolution
+  /** the settled state */
+  final: StageSolution
+  open: Set<string>
+  result: SolveResult
+}
+
+/** Validates and solves a circuit document; throws CircuitValidationError or CircuitSolveError. */
+export function solve(input: unknown): SolveResult {
+  return solveDetailed(input).result
+}
+
+export function solveDetailed(input: unknown): SolveDetail {
+  const parsed = parseCircuit(input)
+  if (!parsed.ok) throw new CircuitValidationError(parsed.errors)
+  return solveCircuit(parsed.circuit)
+}
+
+function deviceAmps(topo: Topology, sol: StageSolution, open: ReadonlySet<string>): Map<string, number> {
+  const amps = new Map<string, number>()
+  topo.poles.forEach((p, k) => {
+    if (open.has(p.device)) return
+    const i = Math.hypot(sol.poleCurrent[k]!.re, sol.poleCurrent[k]!.im)
+    amps.set(p.device, Math.max(amps.get(p.device) ?? 0, i))
+  })
+  return amps
+}
+
+function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<string>, amps: Map<string, number>, hz: number) {
+  const merge = contactMerge(topo, open)
+  const graphs = sideGraphs(topo, merge)
+  const ctx: HazardContext = { topo, sol, secondary: graphs.secondary, loops: deltaLoops(graphs.secondary, merge), merge, deviceAmps: amps, hz }
+  const loops = loopHazards(ctx)
+  return { hazards: [...loops.hazards, ...windingHazards(ctx), ...deviceHazards(ctx)], checks: loops.checks }
+}
+
+/** Solves an already-validated document (defaults filled in). */
+export function solveCircuit(circuit: Circuit): SolveDetail {
+  const topo = buildTopology(circuit)
+  const firstSupply = circuit.components.find((c) => c.kind === 'supply')
+  const hz = firstSupply?.kind === 'supply' ? firstSupply.hz : 60
+
+  const open = new Set<string>()
+  const devices: Record<string, DeviceReading> = {}
+  for (const c of circuit.components) {
+    if (c.kind === 'breaker') {
+      devices[c.id] = { state: c.closed ? 'closed' : 'open', amps: 0 }
+      if (!c.closed) open.add(c.id)
+    } else if (c.kind === 'fuse') {
+      devices[c.id] = { state: c.blown ? 'blown' : 'intact', amps: 0 }
+      if (c.blown) open.add(c.id)
+    }
+  }
+
+  const events: ProtectionEvent[] = []
+  const hazards: Hazard[] = []
+  const hazardKeys = new Set<string>()
+  const damage = new Map<string, number>()
+  let seconds = 0
+  let initial: StageSolution | undefined
+  let sol: StageSolution
+  let checks: ClosingCheck[] = []
+  for (;;) {
+    sol = solveStage(topo, open)
+    initial ??= sol
+    const amps = deviceAmps(topo, sol, open)
+    const stage = stageHazards(topo, sol, open, amps, hz)
+    if (sol === initial) checks = stage.checks
+    for (const h of stage.hazards) {
+      const key = `${h.code}:${h.units.join(',')}`
+      if (!hazardKeys.has(key)) {
+        hazardKeys.add(key)
+        hazards.push(h)
+      }
+    }
+    // the device that operates first, with the stress it has already taken
+    let next: { id: string; amps: number; after: number; region: ProtectionEvent['region']; rating: number } | undefined
+    const times = new Map<string, number>()
+    for (const [id, i] of amps) {
+      const c = topo.byId.get(id)!
+      if (c.kind !== 'fuse' && c.kind !== 'breaker') continue
+      const op = operatingTime(c.kind as DeviceKind, c.amps, i, hz)
+      if (!op) continue
+      times.set(id, op.seconds)
+      const after = Math.max(0, (1 - (damage.get(id) ?? 0)) * op.seconds)
+      const better =
+        !next || after < next.after - 1e-12 || (Math.abs(after - next.after) <= 1e-12 && (i / c.amps > next.amps / next.rating || (i / c.amps === next.amps / next.rating && id < next.id)))
+      if (better) next = { id, amps: i, after, region: op.region, rating: c.amps }
+    }
+    if (!next) break
+    for (const [id, t] of times) damage.set(id, (damage.get(id) ?? 0) + next.after / t)
+    seconds += next.after
+    const kind = topo.byId.get(next.id)!.kind
+    const state = kind === 'fuse' ? 'blown' : 'tripped'
+    events.push({ device: next.id, action: 'opened', amps: round(next.amps, 4), seconds: round(seconds, 6), state, region: next.region })
+    devices[next.id] = { state, amps: round(next.amps, 4) }
+    open.add(next.id)
+  }
+
+  const result = buildResult(topo, sol, open, devices, events, hazards, checks)
+  return { topo, initial: initial!, final: sol, open, result }
+}
+
+function buildResult(
+  topo: Topology,
+  sol: StageSolution,
+  open: Set<string>,
+  devices: Record<string, DeviceReading>,
+  events: ProtectionEvent[],
+  hazards: Hazard[],
+  closingChecks: ClosingCheck[],
+): SolveResult {
+  const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [sol.vRe[node]!, sol.vIm[node]!])
+  const vt = (terminal: string) => V(topo.terminalNode.get(terminal)!)
+
+  const terminals: Record<string, Reading> = {}
+  for (const [name, node] of topo.terminalNode) {
+    const [re, im] = V(node)
+    terminals[name] = reading(re, im)
+  }
+  const meters: Record<string, Reading> = {}
+  for (const m of topo.meters) {
+    const [ar, ai] = V(m.a)
+    const [br, bi] = V(m.b)
+    meters[m.id] = reading(ar - br, ai - bi)
+  }
+  const windings: SolveResult['windings'] = {}
+  topo.units.forEach((u, ui) => {
+    u.windings.forEach((w, k) => {
+      const [ar, ai] = V(w.a)
+      const [br, bi] = V(w.b)
+      const i = sol.units[ui]!.current[k]!
+      windings[`${u.id}.${w.name}`] = { ...reading(ar - br, ai - bi), amps: round(Math.hypot(i.re, i.im), 4) }
+    })
+  })
+  for (const [id, amps] of deviceAmps(topo, sol, open)) {
+    const d = devices[id]!
+    if (d.state === 'closed' || d.state === 'intact') d.amps = round(amps, 4)
+  }
+
+  const merge = contactMerge(topo, open)
+  const graphs = sideGraphs(topo, merge)
+  const bank: BankSummary = {
+    primary: classifySide(topo, graphs.primary, merge),
+    secondary: classifySide(topo, graphs.secondary, merge),
+    coils: classifyCoils(topo),
+    displacementDegrees: null,
+    clock: null,
+  }
+  const energized = isEnergized(topo, merge)
+  const output = topo.circuit.components.find((c) => c.kind === 'output')
+  const supply = topo.circuit.components.find((c) => c.kind === 'supply')
+  if (energized && output && supply) {
+    const [or, oi] = vt(`${output.id}.a`).map((x, i) => x - vt(`${output.id}.b`)[i]!) as [number, number]
+    const [sr, si] = vt(`${supply.id}.A`).map((x, i) => x - vt(`${supply.id}.B`)[i]!) as [number, number]
+    const wired = [`${output.id}.a`, `${output.id}.b`].every((t) => {
+      const node = topo.terminalNode.get(t)!
+      return node < 0 || topo.nodeLabels[node]!.length > 1
+    })
+    if (wired && Math.hypot(or, oi) > 1e-3 * Math.hypot(sr, si) && Math.hypot(sr, si) > 0) {
+      let d = degreesOf(or, oi) - degreesOf(sr, si)
+      while (d <= -180) d += 360
+      while (d > 180) d -= 360
+      bank.displacementDegrees = round(d, 2)
+      // IEC 60076-1: the clock number counts 30° steps of lag of the low side
+      bank.clock = (((Math.round(-d / 30) % 12) + 12) % 12) || 0
+    }
+  }
+
+  return {
+    energized,
+    meters,
+    terminals,
+    windings,
+    devices,
+    events,
+    hazards: hazards.map((h) => ({ ...h, ...(h.volts !== undefined && { volts: round(h.volts, 2) }), ...(h.amps !== undefined && { amps: round(h.amps, 2) }) })),
+    bank,
+    closingChecks: closingChecks.map((c) => ({ ...c, volts: round(c.volts, 2) })),
+  }
+}
+
+/** A transformer, load or output block sits on a node that a supply line reaches through closed contacts. */
+function isEnergized(topo: Topology, merge: (n: number) => number): boolean {
+  const live = new Set(topo.phases.map((p) => merge(p.line)))
+  if (live.size === 0) return false
+  for (const [name, node] of topo.terminalNode) {
+    if (!live.has(merge(node))) continue
+    const kind = topo.byId.get(name.slice(0, name.lastIndexOf('.')))?.kind
+    if (kind === 'transformer' || kind === 'load' || kind === 'output') return true
+  }
+  return false
+}

@@ -1,0 +1,325 @@
+/**
+ * A sparse, complex, symmetric linear system A·x = b, solved by LDLᵀ factorisation in a
+ * minimum-degree order with one step of iterative refinement.
+ *
+ * Why no pivoting: the nodal matrix of a passive network with a conductance to ground at
+ * every node has a positive-definite real part, for which elimination in any order has
+ * non-zero pivots. The only rows without that property are ideal voltage-source rows, which
+ * are eliminated after every node row (their pivot is then the Schur complement, non-zero
+ * unless sources form a loop — checked before solving, and caught here as a last resort).
+ */
+
+export class SingularSystemError extends Error {
+  constructor(readonly unknown: number) {
+    super(`the network equations have no unique solution (unknown ${unknown})`)
+  }
+}
+
+/** Growable pair of Float64Arrays holding complex values. */
+class ComplexBuffer {
+  re: Float64Array
+  im: Float64Array
+  length = 0
+  constructor(capacity: number) {
+    this.re = new Float64Array(Math.max(capacity, 16))
+    this.im = new Float64Array(Math.max(capacity, 16))
+  }
+
+  push(re: number, im: number): number {
+    if (this.length === this.re.length) {
+      const re2 = new Float64Array(this.re.length * 2)
+      const im2 = new Float64Array(this.im.length * 2)
+      re2.set(this.re)
+      im2.set(this.im)
+      this.re = re2
+      this.im = im2
+    }
+    this.re[this.length] = re
+    this.im[this.length] = im
+    return this.length++
+  }
+}
+
+/** Min-heap of (degree, row) pairs encoded as one number; stale entries are skipped on pop. */
+class DegreeHeap {
+  private items: number[] = []
+  static readonly SHIFT = 2 ** 24
+
+  push(degree: number, row: number) {
+    const key = degree * DegreeHeap.SHIFT + row
+    const a = this.items
+    a.push(key)
+    let i = a.length - 1
+    while (i > 0) {
+      const p = (i - 1) >> 1
+      if (a[p]! <= key) break
+      a[i] = a[p]!
+      i = p
+    }
+    a[i] = key
+  }
+
+  pop(): number | undefined {
+    const a = this.items
+    if (a.length === 0) return undefined
+    const top = a[0]!
+    const last = a.pop()!
+    if (a.length > 0) {
+      let i = 0
+      for (;;) {
+        const l = 2 * i + 1
+        if (l >= a.length) break
+        const r = l + 1
+        const c = r < a.length && a[r]! < a[l]! ? r : l
+        if (a[c]! >= last) break
+        a[i] = a[c]!
+        i = c
+      }
+      a[i] = last
+    }
+    return top
+  }
+}
+
+export class ComplexSymmetricSystem {
+  /** rows[i] maps a neighbour j to the slot of the off-diagonal entry A[i][j] = A[j][i]. */
+  private rows: Map<number, number>[]
+  private diagRe: Float64Array
+  private diagIm: Float64Array
+  private off: ComplexBuffer
+  private offI: number[] = []
+  private offJ: number[] = []
+  readonly rhsRe: Float64Array
+  readonly rhsIm: Float64Array
+
+  /**
+   * @param size number of unknowns
+   * @param lateFrom rows at or after this index (ideal-source rows) are eliminated last
+   */
+  constructor(
+    readonly size: number,
+    private readonly lateFrom = size,
+  ) {
+    this.rows = Array.from({ length: size }, () => new Map<number, number>())
+    this.diagRe = new Float64Array(size)
+    this.diagIm = new Float64Array(size)
+    this.off = new ComplexBuffer(size * 4)
+    this.rhsRe = new Float64Array(size)
+    this.rhsIm = new Float64Array(size)
+  }
+
+  /** Adds (re + j·im) to A[i][j], and to A[j][i] when i ≠ j. */
+  add(i: number, j: number, re: number, im: number) {
+    if (i === j) {
+      this.diagRe[i]! += re
+      this.diagIm[i]! += im
+      return
+    }
+    let slot = this.rows[i]!.get(j)
+    if (slot === undefined) {
+      slot = this.off.push(re, im)
+      this.offI.push(i)
+      this.offJ.push(j)
+      this.rows[i]!.set(j, slot)
+      this.rows[j]!.set(i, slot)
+    } else {
+      this.off.re[slot]! += re
+      this.off.im[slot]! += im
+    }
+  }
+
+  /** Stamps an admittance y between rows a and b (either may be -1 for the reference). */
+  addAdmittance(a: number, b: number, re: number, im: number) {
+    if (a >= 0) this.add(a, a, re, im)
+    if (b >= 0) this.add(b, b, re, im)
+    if (a >= 0 && b >= 0) this.add(a, b, -re, -im)
+  }
+
+  addRhs(i: number, re: number, im: number) {
+    if (i < 0) return
+    this.rhsRe[i]! += re
+    this.rhsIm[i]! += im
+  }
+
+  /** Solves and returns x; the system is consumed (factorised in place). */
+  solve(): { re: Float64Array; im: Float64Array } {
+    const n = this.size
+    const origCount = this.off.length
+    const origOffRe = this.off.re.slice(0, origCount)
+    const origOffIm = this.off.im.slice(0, origCount)
+    const origDiagRe = this.diagRe.slice()
+    const origDiagIm = this.diagIm.slice()
+    const rowScale = new Float64Array(n)
+    for (let i = 0; i < n; i++) rowScale[i] = Math.hypot(this.diagRe[i]!, this.diagIm[i]!)
+    for (let s = 0; s < origCount; s++) {
+      const m = Math.hypot(origOffRe[s]!, origOffIm[s]!)
+      const i = this.offI[s]!
+      const j = this.offJ[s]!
+      if (m > rowScale[i]!) rowScale[i] = m
+      if (m > rowScale[j]!) rowScale[j] = m
+    }
+
+    const factor = this.factorise(rowScale)
+    const x = factor.apply(this.rhsRe, this.rhsIm)
+
+    // one step of iterative refinement against the original matrix
+    const rRe = this.rhsRe.slice()
+    const rIm = this.rhsIm.slice()
+    for (let i = 0; i < n; i++) {
+      const ar = origDiagRe[i]!
+      const ai = origDiagIm[i]!
+      rRe[i]! -= ar * x.re[i]! - ai * x.im[i]!
+      rIm[i]! -= ar * x.im[i]! + ai * x.re[i]!
+    }
+    for (let s = 0; s < origCount; s++) {
+      const i = this.offI[s]!
+      const j = this.offJ[s]!
+      const ar = origOffRe[s]!
+      const ai = origOffIm[s]!
+      rRe[i]! -= ar * x.re[j]! - ai * x.im[j]!
+      rIm[i]! -= ar * x.im[j]! + ai * x.re[j]!
+      rRe[j]! -= ar * x.re[i]! - ai * x.im[i]!
+      rIm[j]! -= ar * x.im[i]! + ai * x.re[i]!
+    }
+    const d = factor.apply(rRe, rIm)
+    for (let i = 0; i < n; i++) {
+      x.re[i]! += d.re[i]!
+      x.im[i]! += d.im[i]!
+    }
+    return x
+  }
+
+  private factorise(rowScale: Float64Array) {
+    const n = this.size
+    const rows = this.rows
+    const dRe = this.diagRe
+    const dIm = this.diagIm
+    const off = this.off
+    const order = new Int32Array(n)
+    const colStart = new Int32Array(n + 1)
+    const lIdx: number[] = []
+    const l = new ComplexBuffer(n * 4)
+    const eliminated = new Uint8Array(n)
+    const heap = new DegreeHeap()
+    const late = new DegreeHeap()
+    for (let i = 0; i < n; i++) (i < this.lateFrom ? heap : late).push(rows[i]!.size, i)
+
+    const nbr: number[] = []
+    const nbrSlot: number[] = []
+    const lr: number[] = []
+    const li: number[] = []
+    for (let step = 0; step < n; step++) {
+      let k = -1
+      for (;;) {
+        const key = heap.pop() ?? late.pop()
+        if (key === undefined) break
+        const row = key % DegreeHeap.SHIFT
+        const degree = (key - row) / DegreeHeap.SHIFT
+        if (eliminated[row] || degree !== rows[row]!.size) continue
+        k = row
+        break
+      }
+      if (k < 0) throw new SingularSystemError(-1)
+      order[step] = k
+      eliminated[k] = 1
+      const pr = dRe[k]!
+      const pi = dIm[k]!
+      const pm = pr * pr + pi * pi
+      if (!(Math.sqrt(pm) > 1e-13 * rowScale[k]!) || !Number.isFinite(pm)) throw new SingularSystemError(k)
+      const invRe = pr / pm
+      const invIm = -pi / pm
+
+      nbr.length = 0
+      nbrSlot.length = 0
+      lr.length = 0
+      li.length = 0
+      colStart[step] = lIdx.length
+      for (const [j, slot] of rows[k]!) {
+        const ar = off.re[slot]!
+        const ai = off.im[slot]!
+        const xr = ar * invRe - ai * invIm
+        const xi = ar * invIm + ai * invRe
+        nbr.push(j)
+        nbrSlot.push(slot)
+        lr.push(xr)
+        li.push(xi)
+        lIdx.push(j)
+        l.push(xr, xi)
+      }
+      const m = nbr.length
+      for (let a = 0; a < m; a++) rows[nbr[a]!]!.delete(k)
+      for (let a = 0; a < m; a++) {
+        const i = nbr[a]!
+        const lar = lr[a]!
+        const lai = li[a]!
+        const rowI = rows[i]!
+        // diagonal: A_ii -= l_i · A_ki
+        const s0 = nbrSlot[a]!
+        dRe[i]! -= lar * off.re[s0]! - lai * off.im[s0]!
+        dIm[i]! -= lar * off.im[s0]! + lai * off.re[s0]!
+        for (let b = a + 1; b < m; b++) {
+          const j = nbr[b]!
+          const sb = nbrSlot[b]!
+          const ur = lar * off.re[sb]! - lai * off.im[sb]!
+          const ui = lar * off.im[sb]! + lai * off.re[sb]!
+          let slot = rowI.get(j)
+          if (slot === undefined) {
+            slot = off.push(-ur, -ui)
+            rowI.set(j, slot)
+            rows[j]!.set(i, slot)
+          } else {
+            off.re[slot]! -= ur
+            off.im[slot]! -= ui
+          }
+        }
+      }
+      for (let a = 0; a < m; a++) {
+        const i = nbr[a]!
+        ;(i < this.lateFrom ? heap : late).push(rows[i]!.size, i)
+      }
+    }
+    colStart[n] = lIdx.length
+    const pivRe = dRe.slice()
+    const pivIm = dIm.slice()
+
+    return {
+      apply(bRe: Float64Array, bIm: Float64Array) {
+        const yRe = bRe.slice()
+        const yIm = bIm.slice()
+        for (let step = 0; step < n; step++) {
+          const k = order[step]!
+          const ykr = yRe[k]!
+          const yki = yIm[k]!
+          if (ykr === 0 && yki === 0) continue
+          for (let p = colStart[step]!; p < colStart[step + 1]!; p++) {
+            const i = lIdx[p]!
+            yRe[i]! -= l.re[p]! * ykr - l.im[p]! * yki
+            yIm[i]! -= l.re[p]! * yki + l.im[p]! * ykr
+          }
+        }
+        for (let k = 0; k < n; k++) {
+          const dr = pivRe[k]!
+          const di = pivIm[k]!
+          const dm = dr * dr + di * di
+          const yr = yRe[k]!
+          const yi = yIm[k]!
+          yRe[k] = (yr * dr + yi * di) / dm
+          yIm[k] = (yi * dr - yr * di) / dm
+        }
+        for (let step = n - 1; step >= 0; step--) {
+          const k = order[step]!
+          let sr = yRe[k]!
+          let si = yIm[k]!
+          for (let p = colStart[step]!; p < colStart[step + 1]!; p++) {
+            const i = lIdx[p]!
+            sr -= l.re[p]! * yRe[i]! - l.im[p]! * yIm[i]!
+            si -= l.re[p]! * yIm[i]! + l.im[p]! * yRe[i]!
+          }
+          yRe[k] = sr
+          yIm[k] = si
+        }
+        return { re: yRe, im: yIm }
+      },
+    }
+  }
+}
