@@ -44,10 +44,12 @@ try {
     env: { NUXT_DATABASE_URL: db.url, NUXT_SESSION_PASSWORD: password },
   })
   server.child.once('exit', (code) => {
-    if (!stopping) {
+    // On Ctrl-C the terminal signals the server too; give our own SIGINT handler a moment.
+    setTimeout(() => {
+      if (stopping) return
       console.error(`The server stopped (exit ${code}).`)
       shutdown(code || 1)
-    }
+    }, 300)
   })
 
   const width = Math.max(...DEMO_PEOPLE.map(person => person.email.length))
