@@ -15,6 +15,7 @@ export default defineNuxtConfig({
       htmlAttrs: { lang: 'en' },
       title: 'Phaseloom',
       meta: [{ name: 'description', content: 'Wire, verify and plan three-phase transformer banks.' }],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
   runtimeConfig: {

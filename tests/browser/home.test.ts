@@ -30,6 +30,14 @@ describe('the start page', () => {
     await expect(page.getByRole('link', { name: 'Sign in' }).getAttribute('href')).resolves.toBe('/sign-in')
   })
 
+  it('has its own icon, served by the app', async () => {
+    const href = await page.locator('link[rel="icon"]').getAttribute('href')
+    expect(href).toBe('/favicon.svg')
+    const icon = await page.request.get(href!)
+    expect(icon.status()).toBe(200)
+    expect(icon.headers()['content-type']).toMatch(/^image\/svg\+xml/)
+  })
+
   it('shows the safety notice', async () => {
     const footer = await page.locator('footer').innerText()
     expect(footer).toContain('Real banks can kill')
