@@ -209,12 +209,16 @@ export function buildBank(spec: BankSpec): CircuitInput {
   }
   if (spec.load) {
     const phases = threePhase ? ['a', 'b', 'c'] : ['a']
+    const wye = spec.load.connection === 'wye' && threePhase
     phases.forEach((p, i) => {
       const id = `L${p}`
       components.push({ id, kind: 'load', ohms: spec.load!.ohms })
       wire(`${id}.a`, `OUT.${p}`)
-      const other = spec.load!.connection === 'wye' && hasNeutral ? 'n' : threePhase ? phases[(i + 1) % 3]! : 'b'
-      wire(`${id}.b`, `OUT.${other}`)
+      if (wye && hasNeutral) wire(`${id}.b`, 'OUT.n')
+      else if (wye) {
+        // a wye load with no neutral to go to: its star point floats
+        if (i > 0) wire(`${id}.b`, 'La.b')
+      } else wire(`${id}.b`, `OUT.${threePhase ? phases[(i + 1) % 3]! : 'b'}`)
     })
   }
   if (spec.lightingOhms && hasNeutral) {

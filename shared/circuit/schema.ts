@@ -80,9 +80,14 @@ export const TransformerSchema = z.object({
   compensationPercent: bounded('compensationPercent', -20, 20).default(0),
 })
 
+/** Below this a load is a short: draw a jumper instead (it keeps the equations well conditioned). */
+export const MIN_LOAD_OHMS = 1e-4
+
 const LoadOhmsSchema = z.union([positive('ohms', 1e9, ' Ω'), ImpedanceSchema], {
   error: 'ohms must be a positive number or { "r": .., "x": .. }',
-}).refine((o) => typeof o === 'number' || Math.hypot(o.r, o.x) > 0, { error: 'ohms must not be zero' })
+}).refine((o) => (typeof o === 'number' ? o : Math.hypot(o.r, o.x)) >= MIN_LOAD_OHMS, {
+  error: `ohms must be at least ${MIN_LOAD_OHMS} Ω; for a bolted short use a jumper`,
+})
 
 export const LoadSchema = z.object({ id, kind: z.literal('load'), ohms: LoadOhmsSchema })
 export const VoltmeterSchema = z.object({ id, kind: z.literal('voltmeter') })

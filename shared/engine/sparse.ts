@@ -225,7 +225,7 @@ export class ComplexSymmetricSystem {
       const pr = dRe[k]!
       const pi = dIm[k]!
       const pm = pr * pr + pi * pi
-      if (!(Math.sqrt(pm) > 1e-13 * rowScale[k]!) || !Number.isFinite(pm)) throw new SingularSystemError(k)
+      if (!(Math.sqrt(pm) > 1e-15 * rowScale[k]!) || !Number.isFinite(pm)) throw new SingularSystemError(k)
       const invRe = pr / pm
       const invIm = -pi / pm
 
