@@ -180,7 +180,8 @@ function sqlString(value) {
  * with `database` and an app `user` who may do anything in it. Idempotent: an existing
  * data dir is reused, and a server already running on that dir is reused (and left
  * running by stop()).
- * @returns {Promise<{ url: string, port: number, dataDir: string, socket: string, database: string, stop: () => Promise<void> }>}
+ * @returns {Promise<{ url: string, port: number, dataDir: string, socket: string, database: string, pid: number | null, stop: () => Promise<void> }>}
+ * (`pid` is null when an already running server was reused.)
  */
 export async function ensureMariaDB({
   dataDir,
@@ -263,7 +264,7 @@ export async function ensureMariaDB({
     return stopping
   }
 
-  return { url, port, dataDir, socket, database, stop }
+  return { url, port, dataDir, socket, database, pid: child?.pid ?? null, stop }
 }
 
 // `node scripts/db.mjs`: serve the development database in the foreground.

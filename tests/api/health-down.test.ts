@@ -1,5 +1,5 @@
-// With the database stopped, /api/health must say so (503) instead of hanging, and
-// recover when the database returns. This file starts its own MariaDB and its own copy of
+// With the database frozen or stopped, /api/health must say so (503) instead of hanging,
+// and recover when the database returns. This file starts its own MariaDB and its own copy of
 // the built server, so the run's shared server and database are never disturbed.
 import { mkdtempSync } from 'node:fs'
 import { join } from 'node:path'
@@ -32,6 +32,25 @@ afterAll(async () => {
 
 describe('GET /api/health when the database stops', () => {
   it('is ok while the database runs', async () => {
+    const response = await api('/api/health', { base: server!.baseURL })
+    expect(response.status).toBe(200)
+    expect(response.body).toMatchObject({ ok: true, db: 'ok' })
+  })
+
+  it('answers 503 rather than hang while the database is frozen', async () => {
+    // SIGSTOP: the server still holds its port, so connections open but nothing answers
+    process.kill(database!.pid!, 'SIGSTOP')
+    try {
+      const response = await api('/api/health', { base: server!.baseURL, signal: AbortSignal.timeout(15_000) })
+      expect(response.status).toBe(503)
+      expect(response.body).toMatchObject({ ok: false, db: 'down' })
+    }
+    finally {
+      process.kill(database!.pid!, 'SIGCONT')
+    }
+  })
+
+  it('is ok again once the database thaws', async () => {
     const response = await api('/api/health', { base: server!.baseURL })
     expect(response.status).toBe(200)
     expect(response.body).toMatchObject({ ok: true, db: 'ok' })
