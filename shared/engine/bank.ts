@@ -169,6 +169,8 @@ function nodeRoles(topo: Topology, node: number): { neutral: boolean; line: bool
 }
 
 function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: number) => number): Connection {
+  // a winding with both ends on one node is shorted out: no connection the trade names
+  if (group.some((e) => merge(e.from) === merge(e.to))) return 'other'
   if (group.length === 1) return 'single-phase'
   const degree = new Map<number, number>()
   const ends = new Map<number, ('dot' | 'undot')[]>()
@@ -190,16 +192,15 @@ function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: number) => 
     return e.every((x) => x === e[0])
   }
   if (group.length === 2) {
-    if (degree.size === 2) return 'other' // two units across the same pair of nodes
-    const centre = [...degree].find(([, d]) => d === 2)![0]
+    const centre = [...degree].find(([, d]) => d === 2)?.[0]
+    // two units across the same pair of nodes are in parallel: not a three-phase connection
+    if (degree.size !== 3 || centre === undefined) return 'other'
     return starLike(centre) ? 'open-wye' : 'open-delta'
   }
   if (group.length === 3) {
     if (degree.size === 3 && degrees.every((d) => d === 2)) return 'delta'
-    if (degree.size === 4 && degrees.join() === '1,1,1,3') {
-      const centre = [...degree].find(([, d]) => d === 3)![0]
-      return starLike(centre) ? 'wye' : 'other'
-    }
+    const centre = [...degree].find(([, d]) => d === 3)?.[0]
+    if (degree.size === 4 && degrees.join() === '1,1,1,3' && centre !== undefined) return starLike(centre) ? 'wye' : 'other'
     if (degree.size === 4 && degrees.join() === '1,1,2,2') return 'delta' // a delta with one corner open
   }
   return 'other'

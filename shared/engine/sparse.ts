@@ -130,6 +130,7 @@ export class ComplexSymmetricSystem {
 
   /** Stamps an admittance y between rows a and b (either may be -1 for the reference). */
   addAdmittance(a: number, b: number, re: number, im: number) {
+    if (a === b) return // both ends on one node: shorted out, it carries nothing
     if (a >= 0) this.add(a, a, re, im)
     if (b >= 0) this.add(b, b, re, im)
     if (a >= 0 && b >= 0) this.add(a, b, -re, -im)
