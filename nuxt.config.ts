@@ -18,8 +18,22 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
+  // Every key can be set from the environment (NUXT_ + the path in SCREAMING_SNAKE_CASE,
+  // e.g. NUXT_MAIL_HOST, NUXT_SIGN_IN_LIMIT_WINDOW_SECONDS, NUXT_PUBLIC_BASE_URL).
   runtimeConfig: {
     databaseUrl: '',
-    session: { maxAge: 60 * 60 * 24 * 7 },
+    // sealed-cookie sessions for 7 days; NUXT_SESSION_COOKIE_SECURE=false for plain HTTP on a LAN
+    session: { maxAge: 60 * 60 * 24 * 7, cookie: { secure: true } },
+    // 5 failed sign-ins per e-mail and IP within 15 minutes, then 429 until the window ends
+    signInLimit: { attempts: 5, windowSeconds: 15 * 60 },
+    // SMTP for outgoing mail; npm start and npm test point it at the local mail catcher
+    mail: { host: '', port: 587, secure: false, user: '', password: '', from: 'Phaseloom <no-reply@phaseloom.test>' },
+    // the mail catcher's directory; set only in development (npm start, npm test), it turns
+    // on GET /api/admin/outbox, which is a 404 otherwise
+    devOutboxDir: '',
+    public: {
+      // the address links in e-mails and share links start with
+      baseUrl: 'http://localhost:3000',
+    },
   },
 })

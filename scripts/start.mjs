@@ -1,6 +1,7 @@
 // `npm start`: everything needed to run Phaseloom locally, then serve it.
 //   PORT     the app's port (3000)
 //   DB_PORT  the private MariaDB's port on 127.0.0.1 (33306)
+//   MAIL_PORT  the local mail catcher's SMTP port on 127.0.0.1 (2525); messages in .data/outbox
 import { join } from 'node:path'
 import { ensureMariaDB, DEFAULT_PORT } from './db.mjs'
 import { buildIfStale, ensureNodeModules, root, sessionPassword, startServer } from './setup.mjs'
@@ -9,18 +10,22 @@ ensureNodeModules()
 // These need the packages npm ci just installed.
 const { migrateDatabase } = await import('./migrate.mjs')
 const { databaseIsEmpty, seedDemo, DEMO_PEOPLE, DEMO_PASSWORD } = await import('./seed.mjs')
+const { startMailCatcher } = await import('./mail-catcher.mjs')
 
 const port = Number(process.env.PORT ?? 3000)
 const dbPort = Number(process.env.DB_PORT ?? DEFAULT_PORT)
+const mailPort = Number(process.env.MAIL_PORT ?? 2525)
 
 const db = await ensureMariaDB({ dataDir: join(root, '.data', 'mariadb'), port: dbPort })
 let server
+let mail
 let stopping = false
 async function shutdown(code = 0) {
   if (stopping) return
   stopping = true
   console.log('\nStopping Phaseloom and its database...')
   await server?.stop()
+  await mail?.stop()
   await db.stop()
   process.exit(code)
 }
@@ -37,11 +42,22 @@ try {
     console.log('Empty database: demo scenario seeded.')
   }
   const password = sessionPassword()
+  mail = await startMailCatcher({ port: mailPort, dir: join(root, '.data', 'outbox') })
+  console.log(`Mail catcher on 127.0.0.1:${mail.port} (messages in .data/outbox, shown at /admin/outbox)`)
   await buildIfStale()
 
   server = await startServer({
     port,
-    env: { NUXT_DATABASE_URL: db.url, NUXT_SESSION_PASSWORD: password },
+    env: {
+      NUXT_DATABASE_URL: db.url,
+      NUXT_SESSION_PASSWORD: password,
+      NUXT_MAIL_HOST: '127.0.0.1',
+      NUXT_MAIL_PORT: String(mail.port),
+      NUXT_DEV_OUTBOX_DIR: mail.dir,
+      NUXT_PUBLIC_BASE_URL: process.env.NUXT_PUBLIC_BASE_URL ?? `http://localhost:${port}`,
+      // plain HTTP here: a Secure cookie would not come back from every browser
+      NUXT_SESSION_COOKIE_SECURE: process.env.NUXT_SESSION_COOKIE_SECURE ?? 'false',
+    },
   })
   server.child.once('exit', (code) => {
     // On Ctrl-C the terminal signals the server too; give our own SIGINT handler a moment.

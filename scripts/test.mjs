@@ -14,6 +14,7 @@ const step = message => console.log(`\n▸ ${message}`)
 ensureNodeModules()
 const { migrateDatabase } = await import('./migrate.mjs')
 const { seedDemo } = await import('./seed.mjs')
+const { startMailCatcher } = await import('./mail-catcher.mjs')
 
 ensureAptPackage({ command: 'ngspice', pkg: 'ngspice' })
 if (!existsSync('/usr/bin/chromium')) ensureAptPackage({ command: 'chromium', pkg: 'chromium' })
@@ -25,8 +26,10 @@ const sessionPassword = 'phaseloom-test-session-password-not-secret-0123456789'
 
 let db
 let server
+let mail
 async function cleanUp() {
   await server?.stop().catch(() => {})
+  await mail?.stop().catch(() => {})
   await db?.stop().catch(() => {})
   rmSync(scratch, { recursive: true, force: true })
 }
@@ -54,15 +57,22 @@ try {
     console.log('Type check passed.')
   }
 
-  step('Built server')
+  step('Built server and mail catcher')
+  mail = await startMailCatcher({ port: 0, dir: join(scratch, 'outbox') })
   const serverLog = join(resultsDir, 'server.log')
   rmSync(serverLog, { force: true })
-  server = await startServer({
-    port: await freePort(),
-    env: { NUXT_DATABASE_URL: db.url, NUXT_SESSION_PASSWORD: sessionPassword },
-    logFile: serverLog,
-  })
-  console.log(`Serving ${server.baseURL} (log: test-results/server.log)`)
+  const serverPort = await freePort()
+  // production settings (Secure cookie, 15-minute sign-in window) but for mail and the outbox
+  const serverEnv = {
+    NUXT_DATABASE_URL: db.url,
+    NUXT_SESSION_PASSWORD: sessionPassword,
+    NUXT_MAIL_HOST: '127.0.0.1',
+    NUXT_MAIL_PORT: String(mail.port),
+    NUXT_DEV_OUTBOX_DIR: mail.dir,
+    NUXT_PUBLIC_BASE_URL: `http://127.0.0.1:${serverPort}`,
+  }
+  server = await startServer({ port: serverPort, env: serverEnv, logFile: serverLog })
+  console.log(`Serving ${server.baseURL} (log: test-results/server.log); mail catcher on 127.0.0.1:${mail.port}`)
 
   step('vitest run')
   const vitestCode = await runInherit(bin('vitest'), ['run', ...process.argv.slice(2)], {
@@ -71,6 +81,8 @@ try {
       PHASELOOM_BASE_URL: server.baseURL,
       PHASELOOM_DATABASE_URL: db.url,
       PHASELOOM_TEST_TMP: scratch,
+      PHASELOOM_OUTBOX_DIR: mail.dir,
+      PHASELOOM_MAIL_PORT: String(mail.port),
       NUXT_SESSION_PASSWORD: sessionPassword,
     },
   })

@@ -58,3 +58,37 @@ export interface SessionUser {
   role: Role
   name: string
 }
+
+export const AdminUsersQuerySchema = z.object({
+  q: z.string().trim().max(254).optional(),
+  role: z.enum(ROLES, { error: `role must be one of ${ROLES.join(', ')}` }).optional(),
+  page: z.coerce.number({ error: 'page must be a whole number' }).int().min(1).max(10_000).default(1),
+  pageSize: z.coerce.number({ error: 'pageSize must be a whole number' }).int().min(1).max(100).default(20),
+})
+export const AdminUserPatchSchema = z
+  .object({
+    role: z.enum(ROLES, { error: `role must be one of ${ROLES.join(', ')}` }).optional(),
+    active: z.boolean({ error: 'active must be true or false' }).optional(),
+  })
+  .refine((b) => b.role !== undefined || b.active !== undefined, { error: 'nothing to change: send role or active' })
+
+/** One row of the admin users table. */
+export interface AdminUserRow {
+  id: number
+  name: string
+  email: string
+  role: Role
+  active: boolean
+  createdAt: string
+}
+
+/** A message the development mail catcher captured (GET /api/admin/outbox). */
+export interface OutboxMessage {
+  id: string
+  receivedAt: string
+  from: string
+  to: string[]
+  subject: string
+  text: string
+  html: string
+}

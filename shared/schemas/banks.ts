@@ -28,6 +28,8 @@ export interface BankSummary {
   updatedAt: string
   deletedAt: string | null
   shared: boolean
+  /** The read-only link when the bank is shared. */
+  shareUrl: string | null
 }
 export interface Paged<T> {
   items: T[]

@@ -1,0 +1,42 @@
+/** The words of the messages Phaseloom sends. Plain text first, with a simple HTML twin. */
+import type { Mail } from '../utils/mail'
+
+function html(paragraphs: string[], link: { href: string, label: string }): string {
+  const body = paragraphs.map(p => `<p>${escapeHtml(p)}</p>`).join('\n')
+  return `<!doctype html>
+<html><body style="font-family: 'IBM Plex Sans', system-ui, sans-serif; color: #26303b; background: #f7f2e8; padding: 24px;">
+<div style="max-width: 560px; margin: 0 auto; background: #fffcf5; border: 1px solid #e4dccb; padding: 24px;">
+<p style="font-weight: 600; font-size: 18px;">Phaseloom</p>
+${body}
+<p><a href="${escapeHtml(link.href)}" style="color: #8a4a29; font-weight: 600;">${escapeHtml(link.label)}</a></p>
+<p style="font-size: 12px; color: #4a5562;">Phaseloom is a practice and planning tool. Real banks can kill: de-energize, lock out and verify absence of voltage before touching.</p>
+</div></body></html>`
+}
+
+export function passwordResetMail(to: string, name: string, link: string): Mail {
+  const paragraphs = [
+    `Hello ${name},`,
+    'Someone (we hope you) asked to set a new password for your Phaseloom account. The link below lets you choose one. It works once, for one hour.',
+    'If you did not ask for this, ignore this message: your password stays as it is.',
+  ]
+  return {
+    to,
+    subject: 'Set a new Phaseloom password',
+    text: `${paragraphs.join('\n\n')}\n\nChoose a new password: ${link}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: link, label: 'Choose a new password' }),
+  }
+}
+
+export function instructorInvitationMail(to: string, name: string | null, invitedBy: string, link: string): Mail {
+  const paragraphs = [
+    name ? `Hello ${name},` : 'Hello,',
+    `${invitedBy} has invited you to teach on Phaseloom as an instructor: you will be able to run classes, publish fault hunts and review lab sheets.`,
+    'Open the link below to accept. If you already have a Phaseloom account with this e-mail address, sign in first and your account becomes an instructor account. The invitation is good for 7 days.',
+  ]
+  return {
+    to,
+    subject: 'You are invited to teach on Phaseloom',
+    text: `${paragraphs.join('\n\n')}\n\nAccept the invitation: ${link}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: link, label: 'Accept the invitation' }),
+  }
+}
