@@ -24,17 +24,17 @@ export function useBanks() {
   const pages = computed(() => Math.max(1, Math.ceil((data.value?.total ?? 0) / query.pageSize)))
 
   async function create(name: string, document: unknown) {
-    return $fetch<{ id: number, version: number }>('/api/banks', { method: 'POST', body: { name: name.slice(0, BANK_NAME_MAX), document } })
+    return callApi<{ id: number, version: number }>('/api/banks', { method: 'POST', body: { name: name.slice(0, BANK_NAME_MAX), document } })
   }
   async function rename(bank: BankSummary, name: string) {
-    return $fetch<{ id: number, version: number }>(`/api/banks/${bank.id}`, { method: 'PATCH', body: { name, version: bank.version } })
+    return callApi<{ id: number, version: number }>(`/api/banks/${bank.id}`, { method: 'PATCH', body: { name, version: bank.version } })
   }
-  const post = (bank: BankSummary, action: string) => $fetch<any>(`/api/banks/${bank.id}/${action}`, { method: 'POST' })
+  const post = (bank: BankSummary, action: string) => callApi<any>(`/api/banks/${bank.id}/${action}`, { method: 'POST' })
   const duplicate = (bank: BankSummary) => post(bank, 'duplicate')
   const restore = (bank: BankSummary) => post(bank, 'restore')
   const share = (bank: BankSummary) => post(bank, 'share') as Promise<{ token: string, url: string }>
-  const unshare = (bank: BankSummary) => $fetch(`/api/banks/${bank.id}/share`, { method: 'DELETE' })
-  const remove = (bank: BankSummary) => $fetch(`/api/banks/${bank.id}`, { method: 'DELETE' })
+  const unshare = (bank: BankSummary) => callApi(`/api/banks/${bank.id}/share`, { method: 'DELETE' })
+  const remove = (bank: BankSummary) => callApi(`/api/banks/${bank.id}`, { method: 'DELETE' })
 
   return { query, search, data, status, error, refresh, pages, create, rename, duplicate, restore, share, unshare, remove }
 }
