@@ -9,6 +9,7 @@ import { computed, shallowRef, ref } from 'vue'
 import { parseCircuit, type CircuitError } from '#shared/circuit/parse'
 import { CIRCUIT_FORMAT, CIRCUIT_VERSION, splitTerminal, terminalsOf, type Circuit, type Component, type ComponentKind } from '#shared/circuit/schema'
 import { CircuitSolveError, solveCircuit, type ProtectionEvent, type SolveResult } from '#shared/engine'
+import type { PartFields } from '~/utils/bench-parts'
 
 export const HISTORY_LIMIT = 50
 
@@ -30,6 +31,19 @@ function solveSafely(doc: Circuit): BenchSolve {
   } catch (e) {
     if (e instanceof CircuitSolveError) return { result: null, errors: [], solveError: e.message }
     throw e
+  }
+}
+
+/** The document after the protection has done what the events say: a blown fuse must be replaced. */
+function settle(doc: Circuit, events: ProtectionEvent[]): Circuit {
+  const opened = new Map(events.map((e) => [e.device, e.state]))
+  return {
+    ...doc,
+    components: doc.components.map((c) => {
+      if (c.kind === 'fuse' && opened.get(c.id) === 'blown') return { ...c, blown: true }
+      if (c.kind === 'breaker' && opened.get(c.id) === 'tripped') return { ...c, closed: false }
+      return c
+    }),
   }
 }
 
@@ -70,11 +84,17 @@ export const useBenchStore = defineStore('bench', () => {
   const canRedo = computed(() => future.value.length > 0)
   const terminalSet = computed(() => new Set(doc.value.components.flatMap((c) => terminalsOf(c).map((t) => `${c.id}.${t}`))))
 
-  /** Replaces the document as one undoable step. */
+  /**
+   * Replaces the document as one undoable step. When the change makes a fuse or breaker
+   * operate (closing a breaker, or a jumper made on a live bank), the fuses that blew and the
+   * breakers that tripped stay so in the document, and the events go to the log.
+   */
   function commit(next: Circuit) {
+    const events = solveSafely(next).result?.events ?? []
+    if (events.length) eventLog.value = events
     past.value = [...past.value, doc.value].slice(-HISTORY_LIMIT)
     future.value = []
-    doc.value = next
+    doc.value = events.length ? settle(next, events) : next
     dirty.value = true
   }
 
@@ -164,8 +184,21 @@ export const useBenchStore = defineStore('bench', () => {
     commit({ ...doc.value, wires })
   }
 
+  /**
+   * A jumper the user asked for, by mouse or keyboard: made at once, unless it would close a
+   * live delta corner — then it waits in `cornerRequest` for the user to confirm.
+   */
+  function requestJumper(a: string, b: string): 'made' | 'refused' | 'asking' {
+    const corner = closesLiveCorner(a, b)
+    if (corner) {
+      cornerRequest.value = { a, b, ...corner }
+      return 'asking'
+    }
+    return addJumper(a, b) ? 'made' : 'refused'
+  }
+
   /** Keyboard jumpers: the first call picks a terminal, the second makes the jumper. */
-  function pickTerminal(terminal: string): 'picked' | 'made' | 'cancelled' | 'refused' {
+  function pickTerminal(terminal: string): 'picked' | 'made' | 'cancelled' | 'refused' | 'asking' {
     const first = pendingTerminal.value
     if (!first) {
       pendingTerminal.value = terminal
@@ -173,10 +206,10 @@ export const useBenchStore = defineStore('bench', () => {
     }
     pendingTerminal.value = null
     if (first === terminal) return 'cancelled'
-    return addJumper(first, terminal) ? 'made' : 'refused'
+    return requestJumper(first, terminal)
   }
 
-  function addPart(kind: ComponentKind, fields: Omit<Component, 'id'>, id: string, position: { x: number; y: number }) {
+  function addPart(kind: ComponentKind, fields: PartFields, id: string, position: { x: number; y: number }) {
     const component = { ...fields, id, kind } as Component
     commit({ ...doc.value, components: [...doc.value.components, component], layout: { ...doc.value.layout, [id]: position } })
     selected.value = id
@@ -230,26 +263,10 @@ export const useBenchStore = defineStore('bench', () => {
     return { next, outcome: solveSafely(next) }
   }
 
-  /**
-   * Moves a breaker's handle. When the protection operates, the fuses that blew and the
-   * breakers that tripped stay so in the document (a blown fuse must be replaced).
-   */
+  /** Moves a breaker's handle (the page asks first when closing onto a flagged bank). */
   function setBreaker(id: string, closed: boolean) {
-    const { next, outcome } = previewBreaker(id, closed)
-    const events = outcome.result?.events ?? []
-    eventLog.value = events
-    const opened = new Map(events.map((e) => [e.device, e.state]))
-    const settled = opened.size
-      ? {
-          ...next,
-          components: next.components.map((c) => {
-            if (c.kind === 'fuse' && opened.get(c.id) === 'blown') return { ...c, blown: true }
-            if (c.kind === 'breaker' && opened.get(c.id) === 'tripped') return { ...c, closed: false }
-            return c
-          }),
-        }
-      : next
-    commit(settled)
+    eventLog.value = []
+    commit(previewBreaker(id, closed).next)
   }
 
   function replaceFuse(id: string) {
@@ -282,6 +299,7 @@ export const useBenchStore = defineStore('bench', () => {
     jumperProblem,
     closesLiveCorner,
     addJumper,
+    requestJumper,
     removeJumper,
     pickTerminal,
     addPart,

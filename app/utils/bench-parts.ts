@@ -1,7 +1,10 @@
 import type { Component, ComponentKind } from '#shared/circuit/schema'
 
+/** A part's fields without its id (for each kind of part). */
+export type PartFields = Component extends infer C ? (C extends Component ? Omit<C, 'id'> : never) : never
+
 /** What the parts tray offers, with the defaults a new part starts from. */
-export const PART_DEFAULTS: Record<ComponentKind, { label: string; prefix: string; fields: Omit<Component, 'id'> }> = {
+export const PART_DEFAULTS: Record<ComponentKind, { label: string; prefix: string; fields: PartFields }> = {
   supply: { label: 'Supply', prefix: 'S', fields: { kind: 'supply', connection: 'delta', lineVolts: 480, hz: 60, rotation: 'ABC', sourceOhms: { r: 0.02, x: 0.05 } } },
   breaker: { label: 'Breaker', prefix: 'CB', fields: { kind: 'breaker', poles: 3, amps: 30, closed: false } },
   fuse: { label: 'Fuse', prefix: 'F', fields: { kind: 'fuse', amps: 30, blown: false } },
