@@ -71,12 +71,13 @@ export function loopHazards(ctx: HazardContext): { hazards: Hazard[]; checks: Cl
   for (const loop of ctx.loops) {
     const emfs = loop.path.map(({ edge, sign }) => scale(edgeEmf(ctx, edge), sign))
     const mean = emfs.reduce((s, e) => s + abs(e), 0) / emfs.length
-    if (mean < 1) continue // not energized
+    const energized = mean >= 1
     const coilVolts = Math.max(...loop.path.map(({ edge }) => edgeRatedVolts(ctx, edge)))
     const sum = emfs.reduce(addc, [0, 0] as C)
     const gapVolts = loop.gap ? abs(sub(voltage(ctx, loop.gap[0]), voltage(ctx, loop.gap[1]))) : abs(sum)
     const units = loop.path.map(({ edge }) => edge.unit)
-    if (loop.gap) checks.push({ units, between: loop.gap, volts: gapVolts, coilVolts, ok: gapVolts <= CLOSING_TOLERANCE * coilVolts })
+    if (loop.gap) checks.push({ units, between: loop.gap, volts: gapVolts, coilVolts, energized, ok: energized && gapVolts <= CLOSING_TOLERANCE * coilVolts })
+    if (!energized) continue
     if (abs(sum) <= CLOSING_TOLERANCE * mean && gapVolts <= CLOSING_TOLERANCE * coilVolts) continue
 
     let odd = -1

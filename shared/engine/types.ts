@@ -47,6 +47,9 @@ export interface ClosingCheck {
   volts: number
   /** the rated voltage of one unit's secondary as wired in the loop */
   coilVolts: number
+  /** false when the bank is dead: the gap is there but reads nothing yet */
+  energized: boolean
+  /** energized and reading at most 5 % of the coil voltage */
   ok: boolean
 }
 

@@ -14,8 +14,13 @@ describe('common practice of the trade (no published source)', () => {
     const r = solve(buildBank({ ...closedDelta, openCorner: true }))
     expect(r.meters.MC!.volts).toBeLessThan(0.05 * 240)
     expect(r.closingChecks).toHaveLength(1)
-    expect(r.closingChecks[0]).toMatchObject({ ok: true, coilVolts: 240 })
+    expect(r.closingChecks[0]).toMatchObject({ ok: true, energized: true, coilVolts: 240 })
     expect(r.hazards).toEqual([])
+  })
+
+  it('the open corner is found from the wiring while the bank is still dead', () => {
+    const r = solve(buildBank({ ...closedDelta, openCorner: true, breaker: { amps: 40, closed: false } }))
+    expect(r.closingChecks).toEqual([expect.objectContaining({ energized: false, ok: false, volts: 0, between: ['T1.X1', 'T3.X4'] })])
   })
 
   it.each(['T1', 'T2', 'T3'])('with %s backwards the closing check reads about 2 × the coil voltage, and the hazard names it', (unitId) => {

@@ -1,0 +1,13 @@
+import type { Component } from '#shared/circuit/schema'
+
+/** One part of the Bench's document, as a node component sees it. */
+export function useBenchPart<K extends Component['kind']>(id: string, _kind?: K) {
+  const bench = useBenchStore()
+  const part = computed(() => bench.doc.components.find((c) => c.id === id) as Extract<Component, { kind: K }> | undefined)
+  const flagged = computed<'danger' | 'caution' | null>(() => {
+    const hazards = bench.result?.hazards.filter((h) => h.units.includes(id)) ?? []
+    if (hazards.some((h) => h.severity === 'danger')) return 'danger'
+    return hazards.length ? 'caution' : null
+  })
+  return { bench, part, flagged }
+}

@@ -1,0 +1,20 @@
+/** The Bench's keyboard shortcuts (listed in its help dialog). */
+export function useBenchShortcuts(openHelp: () => void) {
+  const bench = useBenchStore()
+  function onKey(e: KeyboardEvent) {
+    const target = e.target as HTMLElement | null
+    if (target && (target.tagName === 'INPUT' || target.tagName === 'TEXTAREA' || target.tagName === 'SELECT' || target.isContentEditable)) return
+    const mod = e.ctrlKey || e.metaKey
+    const key = e.key.toLowerCase()
+    if (mod && key === 'z' && !e.shiftKey) bench.undo()
+    else if (mod && ((key === 'z' && e.shiftKey) || key === 'y')) bench.redo()
+    else if (mod && key === 'c') bench.copySelected()
+    else if (mod && key === 'v' && bench.clipboard) bench.paste(nextPartId(bench.clipboard.kind, bench.doc.components.map((c) => c.id)))
+    else if (e.key === 'Escape' && bench.pendingTerminal) bench.pendingTerminal = null
+    else if (e.key === '?') openHelp()
+    else return
+    e.preventDefault()
+  }
+  onMounted(() => window.addEventListener('keydown', onKey))
+  onBeforeUnmount(() => window.removeEventListener('keydown', onKey))
+}
