@@ -116,7 +116,7 @@ describe('instructor invitations', () => {
     const token = link.pathname.split('/').pop()!
     expect(link.pathname).toBe(`/invitations/${token}`)
     const invitation = await api(`/api/invitations/${token}`)
-    expect(invitation.body).toMatchObject({ email })
+    expect(invitation.body).toEqual({ email, name: 'Oluwaseun Marsh', forSignedInUser: false })
 
     const incomplete = await api(`/api/invitations/${token}/accept`, { method: 'POST', json: {} })
     expect(incomplete.status).toBe(400)
@@ -134,6 +134,7 @@ describe('instructor invitations', () => {
     const student = await newPerson('student', databaseURL, 'upgrade')
     await admin.call('/api/admin/invitations', { method: 'POST', json: { email: student.email } })
     const token = firstLink((await mailTo(student.email)).text).pathname.split('/').pop()!
+    expect((await student.call(`/api/invitations/${token}`)).body.forSignedInUser).toBe(true)
     const anonymous = await api(`/api/invitations/${token}/accept`, { method: 'POST', json: {} })
     expect(anonymous.status).toBe(409)
     const upgraded = await student.call(`/api/invitations/${token}/accept`, { method: 'POST', json: {} })
