@@ -1,4 +1,5 @@
 import type { Component, ComponentKind } from '#shared/circuit/schema'
+import { formatAngle } from '#shared/phasors'
 
 /** A part's fields without its id (for each kind of part). */
 export type PartFields = Component extends infer C ? (C extends Component ? Omit<C, 'id'> : never) : never
@@ -32,8 +33,8 @@ export function terminalLabel(terminal: string): string {
   return `${terminal.slice(0, dot)} terminal ${terminal.slice(dot + 1)}`
 }
 
-/** A reading as a meter shows it: `239.8 V ∠ 30.0°`. */
-export function formatReading(volts: number, degrees?: number, unit = 'V'): string {
-  const magnitude = `${volts >= 1000 ? volts.toFixed(0) : volts.toFixed(1)} ${unit}`
-  return degrees === undefined ? magnitude : `${magnitude} ∠ ${degrees.toFixed(1)}°`
+/** A value as a meter shows it: `239.8 V`, or with its angle `239.8 V ∠ 30.0°`; amps with unit 'A'. */
+export function formatValue(value: number, degrees?: number, unit = 'V'): string {
+  const magnitude = `${value >= 1000 ? value.toFixed(0) : value.toFixed(1)} ${unit}`
+  return degrees === undefined ? magnitude : `${magnitude} ∠ ${formatAngle(degrees)}`
 }

@@ -1,7 +1,7 @@
 /**
- * Canvas positions for a bank document: the supply on the left, then the main breaker and
- * the primary fuses, the units in one row (each drawn with its H side up and X side down),
- * the output block and its meters on the right, loads and any other meter below the units.
+ * Canvas positions for a bank document, in three bands: the supply, the main breaker and the
+ * primary fuses along the top; the units in one row below them (each drawn with its H side up
+ * and X side down); the output block, its meters, loads and any other meter at the bottom.
  *
  * Works for any document: parts are placed by kind, in the order the document lists them,
  * so a bank made by `buildBank` comes out in the order a person would draw it. Positions are
@@ -60,40 +60,38 @@ export function layoutBank(doc: LayoutDocument): Layout {
   const lineMeters = of('voltmeter').filter((m) => onOutput(m.id))
   const otherMeters = of('voltmeter').filter((m) => !onOutput(m.id))
 
+  // Three bands, so the drawing stays about as tall as it is wide and reads at a useful size:
+  // the supply, breaker and fuses along the top; the units in one row under them (H side up,
+  // towards the fuses); the output block, its meters, loads and other meters at the bottom.
   let x = 0
-  /** a column of parts stacked top to bottom from y = 0; the next column starts right of it */
+  let y0 = 0
+  let bandBottom = 0
+  /** a column of parts stacked from the band's top; the next column starts right of it */
   const column = (parts: readonly LayoutPart[]) => {
     if (parts.length === 0) return
-    let y = 0
+    let y = y0
     for (const p of parts) {
       layout[p.id] = { x, y }
       y += box(p.kind).height + STACK_GAP
     }
+    bandBottom = Math.max(bandBottom, y - STACK_GAP)
     x += STEP_X
+  }
+  const band = () => {
+    x = 0
+    y0 = bandBottom + GAP
   }
 
   column(of('supply'))
   column(of('breaker'))
   column(of('fuse'))
-  const unitsX = x
-  // the units side by side, primaries on one level
+  column(doc.components.filter((c) => !KNOWN.has(c.kind)))
+  if (Object.keys(layout).length > 0) band()
   for (const unit of of('transformer')) column([unit])
+  if (of('transformer').length > 0) band()
   column(of('output'))
   for (let i = 0; i < lineMeters.length; i += METERS_PER_COLUMN) column(lineMeters.slice(i, i + METERS_PER_COLUMN))
-  column(doc.components.filter((c) => !KNOWN.has(c.kind)))
-
-  // the row under the units: other meters, then loads, then grounds, clear of every column above it
-  const below = [...otherMeters, ...of('load'), ...of('ground')]
-  if (below.length > 0) {
-    const right = unitsX + below.length * STEP_X
-    let y = 0
-    for (const c of doc.components) {
-      const p = layout[c.id]
-      if (p && p.x < right && p.x + box(c.kind).width > unitsX) y = Math.max(y, p.y + box(c.kind).height + GAP)
-    }
-    below.forEach((p, i) => {
-      layout[p.id] = { x: unitsX + i * STEP_X, y }
-    })
-  }
+  const rest = [...otherMeters, ...of('load'), ...of('ground')]
+  for (let i = 0; i < rest.length; i += METERS_PER_COLUMN) column(rest.slice(i, i + METERS_PER_COLUMN))
   return layout
 }

@@ -19,19 +19,17 @@ const id = z
   .max(LIMITS.idLength, { error: `id must be at most ${LIMITS.idLength} characters` })
   .regex(ID_PATTERN, { error: 'id must start with a letter and hold only letters, digits, "-" or "_"' })
 
+// zod 4's number() already refuses NaN and ±Infinity; the checks below are its own (fast)
 function positive(field: string, max: number, unit = '') {
   return z
     .number({ error: `${field} must be a number` })
-    .refine(Number.isFinite, { error: `${field} must be a finite number` })
-    .refine((v) => v > 0, { error: `${field} must be greater than 0` })
-    .refine((v) => v <= max, { error: `${field} must be at most ${max}${unit}` })
+    .gt(0, { error: `${field} must be greater than 0` })
+    .lte(max, { error: `${field} must be at most ${max}${unit}` })
 }
 
 function bounded(field: string, min: number, max: number) {
-  return z
-    .number({ error: `${field} must be a number` })
-    .refine(Number.isFinite, { error: `${field} must be a finite number` })
-    .refine((v) => v >= min && v <= max, { error: `${field} must be between ${min} and ${max}` })
+  const error = `${field} must be between ${min} and ${max}`
+  return z.number({ error: `${field} must be a number` }).gte(min, { error }).lte(max, { error })
 }
 
 export const ImpedanceSchema = z.object({

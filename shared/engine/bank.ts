@@ -66,7 +66,20 @@ function isUsed(topo: Topology, unit: Unit, terminal: string): boolean {
   })
 }
 
+// how each unit's coils are joined, and the edges of each side, depend on the wiring alone:
+// worked out once per topology, however many times the protection study solves it
+const coilModes = new WeakMap<Topology, Map<string, UnitCoilMode>>()
+const edgeCache = new WeakMap<Topology, { primary: BankEdge[]; secondary: BankEdge[] }>()
+
 export function unitCoilMode(topo: Topology, unit: Unit): UnitCoilMode {
+  let modes = coilModes.get(topo)
+  if (!modes) coilModes.set(topo, (modes = new Map()))
+  let mode = modes.get(unit.id)
+  if (!mode) modes.set(unit.id, (mode = readCoilMode(topo, unit)))
+  return mode
+}
+
+function readCoilMode(topo: Topology, unit: Unit): UnitCoilMode {
   if (unit.windings.length < 3) return 'single'
   const n = (t: string) => topo.terminalNode.get(`${unit.id}.${t}`)!
   const same = (a: string, b: string) => n(a) === n(b)
@@ -139,15 +152,22 @@ function groupEdges(edges: BankEdge[], merge: (n: number) => number): BankEdge[]
 }
 
 export function sideGraphs(topo: Topology, merge: (n: number) => number): { primary: SideGraph; secondary: SideGraph } {
-  const primaryEdges: BankEdge[] = topo.units.map((u) => ({
-    unit: u.id,
-    fromTerminal: `${u.id}.H1`,
-    toTerminal: `${u.id}.H2`,
-    from: u.windings[0]!.a,
-    to: u.windings[0]!.b,
-    windings: [0],
-  }))
-  const secEdges = topo.units.flatMap((u) => secondaryEdges(topo, u))
+  let edges = edgeCache.get(topo)
+  if (!edges) {
+    edges = {
+      primary: topo.units.map((u) => ({
+        unit: u.id,
+        fromTerminal: `${u.id}.H1`,
+        toTerminal: `${u.id}.H2`,
+        from: u.windings[0]!.a,
+        to: u.windings[0]!.b,
+        windings: [0],
+      })),
+      secondary: topo.units.flatMap((u) => secondaryEdges(topo, u)),
+    }
+    edgeCache.set(topo, edges)
+  }
+  const { primary: primaryEdges, secondary: secEdges } = edges
   return {
     primary: { edges: primaryEdges, groups: groupEdges(primaryEdges, merge) },
     secondary: { edges: secEdges, groups: groupEdges(secEdges, merge) },

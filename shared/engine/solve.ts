@@ -72,7 +72,7 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
   const graphs = sideGraphs(topo, merge)
   const ctx: HazardContext = { topo, sol, secondary: graphs.secondary, loops: deltaLoops(graphs.secondary, merge), merge, deviceAmps: amps, hz }
   const loops = loopHazards(ctx)
-  return { hazards: [...loops.hazards, ...windingHazards(ctx), ...deviceHazards(ctx)], checks: loops.checks }
+  return { hazards: [...loops.hazards, ...windingHazards(ctx), ...deviceHazards(ctx)], checks: loops.checks, merge, graphs }
 }
 
 /** Solves an already-validated document (defaults filled in). */
@@ -101,11 +101,12 @@ export function solveCircuit(circuit: Circuit): SolveDetail {
   let initial: StageSolution | undefined
   let sol: StageSolution
   let checks: ClosingCheck[] = []
+  let stage: ReturnType<typeof stageHazards>
   for (;;) {
     sol = solveStage(topo, open)
     initial ??= sol
     const amps = deviceAmps(topo, sol, open)
-    const stage = stageHazards(topo, sol, open, amps, hz)
+    stage = stageHazards(topo, sol, open, amps, hz)
     if (sol === initial) checks = stage.checks
     for (const h of stage.hazards) {
       const key = `${h.code}:${h.units.join(',')}`
@@ -138,7 +139,7 @@ export function solveCircuit(circuit: Circuit): SolveDetail {
     open.add(next.id)
   }
 
-  const result = buildResult(topo, sol, open, devices, events, hazards, checks)
+  const result = buildResult(topo, sol, open, devices, events, hazards, checks, stage.merge, stage.graphs)
   return { topo, initial: initial!, final: sol, open, result }
 }
 
@@ -150,6 +151,8 @@ function buildResult(
   events: ProtectionEvent[],
   hazards: Hazard[],
   closingChecks: ClosingCheck[],
+  merge: (n: number) => number,
+  graphs: ReturnType<typeof sideGraphs>,
 ): SolveResult {
   const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [sol.vRe[node]!, sol.vIm[node]!])
   const vt = (terminal: string) => V(topo.terminalNode.get(terminal)!)
@@ -179,8 +182,6 @@ function buildResult(
     if (d.state === 'closed' || d.state === 'intact') d.amps = round(amps, 4)
   }
 
-  const merge = contactMerge(topo, open)
-  const graphs = sideGraphs(topo, merge)
   const bank: BankSummary = {
     primary: classifySide(topo, graphs.primary, merge),
     secondary: classifySide(topo, graphs.secondary, merge),

@@ -81,6 +81,9 @@ class DegreeHeap {
   }
 }
 
+/** Below this many unknowns a dense factorisation is faster than the sparse one. */
+export const DENSE_LIMIT = 48
+
 export class ComplexSymmetricSystem {
   /** rows[i] maps a neighbour j to the slot of the off-diagonal entry A[i][j] = A[j][i]. */
   private rows: Map<number, number>[]
@@ -96,20 +99,42 @@ export class ComplexSymmetricSystem {
    * @param size number of unknowns
    * @param lateFrom rows at or after this index (ideal-source rows) are eliminated last
    */
+  /** a small system is kept dense: A[i][j] at i·size + j */
+  private denseRe: Float64Array | null = null
+  private denseIm: Float64Array | null = null
+
   constructor(
     readonly size: number,
     private readonly lateFrom = size,
   ) {
-    this.rows = Array.from({ length: size }, () => new Map<number, number>())
-    this.diagRe = new Float64Array(size)
-    this.diagIm = new Float64Array(size)
-    this.off = new ComplexBuffer(size * 4)
     this.rhsRe = new Float64Array(size)
     this.rhsIm = new Float64Array(size)
+    this.diagRe = new Float64Array(size)
+    this.diagIm = new Float64Array(size)
+    if (size <= DENSE_LIMIT) {
+      this.denseRe = new Float64Array(size * size)
+      this.denseIm = new Float64Array(size * size)
+      this.rows = []
+      this.off = new ComplexBuffer(0)
+      return
+    }
+    this.rows = Array.from({ length: size }, () => new Map<number, number>())
+    this.off = new ComplexBuffer(size * 4)
   }
 
   /** Adds (re + j·im) to A[i][j], and to A[j][i] when i ≠ j. */
   add(i: number, j: number, re: number, im: number) {
+    const dRe = this.denseRe
+    if (dRe) {
+      const n = this.size
+      dRe[i * n + j]! += re
+      this.denseIm![i * n + j]! += im
+      if (i !== j) {
+        dRe[j * n + i]! += re
+        this.denseIm![j * n + i]! += im
+      }
+      return
+    }
     if (i === j) {
       this.diagRe[i]! += re
       this.diagIm[i]! += im
@@ -144,6 +169,7 @@ export class ComplexSymmetricSystem {
 
   /** Solves and returns x; the system is consumed (factorised in place). */
   solve(): { re: Float64Array; im: Float64Array } {
+    if (this.denseRe) return this.solveDense()
     const n = this.size
     const origCount = this.off.length
     const origOffRe = this.off.re.slice(0, origCount)
@@ -183,6 +209,110 @@ export class ComplexSymmetricSystem {
       rIm[j]! -= ar * x.im[i]! + ai * x.re[i]!
     }
     const d = factor.apply(rRe, rIm)
+    for (let i = 0; i < n; i++) {
+      x.re[i]! += d.re[i]!
+      x.im[i]! += d.im[i]!
+    }
+    return x
+  }
+
+  /**
+   * Dense LDLᵀ in index order (node rows first, ideal-source rows last, as the sparse path
+   * orders them), then one step of iterative refinement.
+   */
+  private solveDense(): { re: Float64Array; im: Float64Array } {
+    const n = this.size
+    const aRe = this.denseRe!
+    const aIm = this.denseIm!
+    const origRe = aRe.slice()
+    const origIm = aIm.slice()
+    const rowScale = new Float64Array(n)
+    for (let i = 0; i < n; i++) {
+      let m = 0
+      for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(aRe[i * n + j]!) + Math.abs(aIm[i * n + j]!))
+      rowScale[i] = m
+    }
+    // factorise in place: below the diagonal L (unit), on it D
+    for (let k = 0; k < n; k++) {
+      const pr = aRe[k * n + k]!
+      const pi = aIm[k * n + k]!
+      const pm = pr * pr + pi * pi
+      if (!(Math.sqrt(pm) > 1e-15 * rowScale[k]!) || !Number.isFinite(pm)) throw new SingularSystemError(k)
+      const invRe = pr / pm
+      const invIm = -pi / pm
+      for (let i = k + 1; i < n; i++) {
+        const ar = aRe[i * n + k]!
+        const ai = aIm[i * n + k]!
+        if (ar === 0 && ai === 0) continue
+        const lr = ar * invRe - ai * invIm
+        const li = ar * invIm + ai * invRe
+        // row i −= l · row k, for the columns right of k (the matrix stays symmetric)
+        for (let j = k + 1; j <= i; j++) {
+          const br = aRe[k * n + j]!
+          const bi = aIm[k * n + j]!
+          if (br === 0 && bi === 0) continue
+          aRe[i * n + j]! -= lr * br - li * bi
+          aIm[i * n + j]! -= lr * bi + li * br
+        }
+        for (let j = k + 1; j < i; j++) {
+          aRe[j * n + i] = aRe[i * n + j]!
+          aIm[j * n + i] = aIm[i * n + j]!
+        }
+        aRe[i * n + k] = lr
+        aIm[i * n + k] = li
+      }
+    }
+    const apply = (bRe: Float64Array, bIm: Float64Array) => {
+      const yRe = bRe.slice()
+      const yIm = bIm.slice()
+      for (let i = 0; i < n; i++) {
+        let sr = yRe[i]!
+        let si = yIm[i]!
+        for (let k = 0; k < i; k++) {
+          const lr = aRe[i * n + k]!
+          const li = aIm[i * n + k]!
+          sr -= lr * yRe[k]! - li * yIm[k]!
+          si -= lr * yIm[k]! + li * yRe[k]!
+        }
+        yRe[i] = sr
+        yIm[i] = si
+      }
+      for (let i = 0; i < n; i++) {
+        const dr = aRe[i * n + i]!
+        const di = aIm[i * n + i]!
+        const dm = dr * dr + di * di
+        const yr = yRe[i]!
+        const yi = yIm[i]!
+        yRe[i] = (yr * dr + yi * di) / dm
+        yIm[i] = (yi * dr - yr * di) / dm
+      }
+      for (let i = n - 1; i >= 0; i--) {
+        let sr = yRe[i]!
+        let si = yIm[i]!
+        for (let k = i + 1; k < n; k++) {
+          const lr = aRe[k * n + i]!
+          const li = aIm[k * n + i]!
+          sr -= lr * yRe[k]! - li * yIm[k]!
+          si -= lr * yIm[k]! + li * yRe[k]!
+        }
+        yRe[i] = sr
+        yIm[i] = si
+      }
+      return { re: yRe, im: yIm }
+    }
+    const x = apply(this.rhsRe, this.rhsIm)
+    const rRe = this.rhsRe.slice()
+    const rIm = this.rhsIm.slice()
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        const ar = origRe[i * n + j]!
+        const ai = origIm[i * n + j]!
+        if (ar === 0 && ai === 0) continue
+        rRe[i]! -= ar * x.re[j]! - ai * x.im[j]!
+        rIm[i]! -= ar * x.im[j]! + ai * x.re[j]!
+      }
+    }
+    const d = apply(rRe, rIm)
     for (let i = 0; i < n; i++) {
       x.re[i]! += d.re[i]!
       x.im[i]! += d.im[i]!

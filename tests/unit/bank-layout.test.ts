@@ -44,25 +44,33 @@ describe('layoutBank on banks made by buildBank', () => {
     expect(overlaps(doc, layout)).toEqual([])
   })
 
-  it('reads left to right: supply, breaker, fuses, units in one row, output block, meters; loads below the units', () => {
+  it('reads top to bottom: supply, breaker and fuses; then the units in one row; then output block, meters and loads', () => {
     const doc = buildBank(banks[0]![1])
     const l = layoutBank(doc)
     expect(l.S1!.x).toBeLessThan(l.CB1!.x)
     expect(l.CB1!.x).toBeLessThan(l.F1!.x)
-    expect(l.F1!.x).toBeLessThan(l.T1!.x)
     expect([l.T1!.y, l.T2!.y, l.T3!.y]).toEqual([l.T1!.y, l.T1!.y, l.T1!.y])
+    expect(l.T1!.y).toBeGreaterThanOrEqual(l.F3!.y + NODE_BOX.fuse.height)
     expect(l.T1!.x).toBeLessThan(l.T2!.x)
     expect(l.T2!.x).toBeLessThan(l.T3!.x)
-    expect(l.T3!.x).toBeLessThan(l.OUT!.x)
+    expect(l.OUT!.y).toBeGreaterThanOrEqual(l.T1!.y + NODE_BOX.transformer.height)
     for (const m of ['Mab', 'Mbc', 'Mca']) expect(l[m]!.x).toBeGreaterThan(l.OUT!.x)
     for (const load of ['La', 'Lb', 'Lc']) expect(l[load]!.y).toBeGreaterThanOrEqual(l.T1!.y + NODE_BOX.transformer.height)
   })
 
-  it('puts the closing-check meter under the units, not with the line meters', () => {
+  it('stays about as tall as it is wide, so the canvas can show it at a readable size', () => {
+    const doc = buildBank(banks[0]![1])
+    const l = layoutBank(doc)
+    const right = Math.max(...doc.components.map((c) => boxOf(doc, l, c.id)).map((b) => b.x + b.width))
+    const bottom = Math.max(...doc.components.map((c) => boxOf(doc, l, c.id)).map((b) => b.y + b.height))
+    expect(right / bottom).toBeLessThan(2)
+  })
+
+  it('puts the closing-check meter at the bottom, apart from the line meters', () => {
     const doc = buildBank(banks[1]![1])
     const l = layoutBank(doc)
     expect(l.MC!.y).toBeGreaterThanOrEqual(l.T1!.y + NODE_BOX.transformer.height)
-    expect(l.MC!.x).toBeLessThan(l.OUT!.x)
+    expect(l.MC!.x).toBeGreaterThan(l.Mab!.x)
   })
 })
 

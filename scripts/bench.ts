@@ -1,0 +1,231 @@
+// npm run bench                    → a table: engine µs per full solve, ngspice µs per point, the ratio
+// npm run --silent bench -- --json → exactly one JSON object on stdout:
+//   { "cases": [ { "name": "...", "units": 3, "engineMicros": 0, "ngspiceMicros": 0 } ] }
+//
+// Engine: the median time of one full solve, parse → settled result (protection included),
+// each timed iteration starting afresh from the JSON text (solve(JSON.parse(text))).
+// ngspice (where it is on the PATH): the same circuit's netlist from toSpiceNetlist, run with
+// many .ac points and with one; the difference of the medians divided by the extra points
+// is the time of one AC point. A benchmark, not a test: nothing here asserts a timing.
+import { spawnSync } from 'node:child_process'
+import { accessSync, constants, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { cpus, loadavg, tmpdir } from 'node:os'
+import { delimiter, join } from 'node:path'
+import { buildBank, type BankSpec } from '../shared/banks/build'
+import { generateNetwork } from '../shared/banks/network'
+import type { CircuitInput } from '../shared/circuit/schema'
+import { solve, toSpiceNetlist, type SolveResult } from '../shared/engine'
+
+const json = process.argv.includes('--json')
+/** progress and notes go to stderr, so that --json leaves stdout to the one object */
+const note = (s: string) => {
+  if (!json) process.stderr.write(`${s}\n`)
+}
+
+interface Case {
+  name: string
+  units: number
+  doc: CircuitInput
+  /** a check that the case is what it claims to be (not a timing) */
+  check: (r: SolveResult) => string | undefined
+}
+
+// 25 kVA units, 480 V primary, two 120 V coils in series: a 75 kVA bank, 90 A full-load
+// primary current; 125 A primary fuses (NEC 240.6(A), about 125 %), a 150 A main breaker
+const closedDelta: BankSpec = {
+  name: 'Closed delta 480 V to 240 V',
+  supply: { connection: 'delta', lineVolts: 480 },
+  units: { kva: 25, primaryVolts: 480, secondaryVolts: [120, 120] },
+  primary: 'delta',
+  secondary: 'delta',
+  coils: 'series',
+  fuseAmps: 125,
+  breaker: { amps: 150, closed: true },
+}
+
+const quiet = (r: SolveResult) =>
+  r.events.length > 0 ? `expected no protective operation, got ${r.events.length}` : r.hazards.length > 0 ? `expected no hazard, got ${r.hazards.map((h) => h.code).join(', ')}` : undefined
+
+const cases: Case[] = [
+  { name: 'closed delta (3 units)', units: 3, doc: buildBank(closedDelta), check: quiet },
+  {
+    name: 'reversed and closed (3 units)',
+    units: 3,
+    doc: buildBank({ ...closedDelta, name: 'Closed delta, T3 reversed', reversed: ['T3'] }),
+    check: (r) => (r.events.length > 0 ? undefined : 'expected the protection to operate (events.length > 0)'),
+  },
+  ...[3, 30, 300].map((units) => ({ name: `network (${units} units)`, units, doc: generateNetwork(units), check: quiet })),
+]
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b)
+  const m = s.length >> 1
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2
+}
+
+/** Median µs of solve(JSON.parse(text)): a short warm-up of its own, then at least 25 iterations and about 2.5 s. */
+function timeEngine(text: string): { micros: number; iterations: number } {
+  let sink = 0
+  const run = () => {
+    const r = solve(JSON.parse(text))
+    sink += r.events.length + (r.energized ? 1 : 0)
+  }
+  const warmStart = performance.now()
+  for (let i = 0; i < 10 || (performance.now() - warmStart < 500 && i < 5000); i++) run()
+  const samples: number[] = []
+  const start = performance.now()
+  while (samples.length < 25 || (performance.now() - start < 2500 && samples.length < 20000)) {
+    const t0 = performance.now()
+    run()
+    samples.push(performance.now() - t0)
+  }
+  if (sink < 0) process.stderr.write('')
+  return { micros: median(samples) * 1000, iterations: samples.length }
+}
+
+function findNgspice(): string | undefined {
+  for (const dir of (process.env.PATH ?? '').split(delimiter)) {
+    if (!dir) continue
+    const file = join(dir, 'ngspice')
+    try {
+      accessSync(file, constants.X_OK)
+      return file
+    } catch {
+      /* not here */
+    }
+  }
+  return undefined
+}
+
+/**
+ * The netlist as toSpiceNetlist writes it for `points` AC points, adapted for timing:
+ * - the print statements are left out: printing every meter and winding for every point is
+ *   output formatting, not analysis (it takes seconds on the 300-unit network);
+ * - `.ac lin N f f` gives a single point in ngspice (a zero step collapses the sweep), so the
+ *   stop frequency is raised by one part in 10⁸: N points that are the same to 8 digits.
+ * The number of points ngspice actually ran is read back from its "No. of Data Rows".
+ */
+function timingNetlist(doc: CircuitInput, points: number): string {
+  const hz = doc.components.find((c) => c.kind === 'supply')?.hz ?? 60
+  return toSpiceNetlist(doc, { points })
+    .split('\n')
+    .filter((line) => !line.startsWith('print '))
+    .map((line) => (line.startsWith('ac lin ') && points > 1 ? `ac lin ${points} ${hz} ${hz * (1 + 1e-8)}` : line))
+    .join('\n')
+}
+
+function runNgspice(ngspice: string, file: string): { millis: number; rows: number } {
+  const t0 = performance.now()
+  const r = spawnSync(ngspice, ['-b', file], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], maxBuffer: 64 * 1024 * 1024 })
+  const millis = performance.now() - t0
+  if (r.error) throw r.error
+  if (r.status !== 0) throw new Error(`ngspice -b ${file} exited with ${r.status}: ${(r.stderr ?? '').slice(0, 500)}`)
+  const rows = /No\. of Data Rows\s*:\s*(\d+)/.exec(r.stdout ?? '')
+  if (!rows) throw new Error(`ngspice -b ${file} ran no AC analysis: ${(r.stdout ?? '').slice(0, 500)}`)
+  return { millis, rows: Number(rows[1]) }
+}
+
+/** µs per AC point: (median of N-point runs − median of 1-point runs) / (N − 1), 5 runs each. */
+function timeNgspice(ngspice: string, dir: string, tag: string, doc: CircuitInput): { micros: number; points: number } {
+  const one = join(dir, `${tag}-1.cir`)
+  writeFileSync(one, timingNetlist(doc, 1))
+  const pilot = join(dir, `${tag}-pilot.cir`)
+  writeFileSync(pilot, timingNetlist(doc, 201))
+  // a pilot run sizes the sweep to about 0.6 s of extra work, between 201 and 20001 points
+  runNgspice(ngspice, one)
+  const base = runNgspice(ngspice, one)
+  const p = runNgspice(ngspice, pilot)
+  const guess = Math.max(1e-3, (p.millis - base.millis) / Math.max(1, p.rows - base.rows))
+  const points = Math.min(20001, Math.max(201, Math.round(600 / guess / 100) * 100 + 1))
+  const many = join(dir, `${tag}-${points}.cir`)
+  writeFileSync(many, timingNetlist(doc, points))
+  const short: number[] = []
+  const long: number[] = []
+  let rows = { one: 1, many: points }
+  for (let i = 0; i < 5; i++) {
+    const a = runNgspice(ngspice, one)
+    const b = runNgspice(ngspice, many)
+    short.push(a.millis)
+    long.push(b.millis)
+    rows = { one: a.rows, many: b.rows }
+  }
+  const extra = rows.many - rows.one
+  return { micros: ((median(long) - median(short)) * 1000) / extra, points: rows.many }
+}
+
+const ngspice = findNgspice()
+const dir = ngspice ? mkdtempSync(join(tmpdir(), 'phaseloom-bench-')) : undefined
+note(`Phaseloom engine benchmark · node ${process.version} · ${cpus().length} cores · load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}`)
+note(ngspice ? `ngspice: ${ngspice}` : 'ngspice: not on the PATH (engine only)')
+
+interface Row {
+  name: string
+  units: number
+  engineMicros: number
+  ngspiceMicros: number | null
+  iterations: number
+  points: number | null
+}
+const rows: Row[] = []
+try {
+  const texts = cases.map((c) => JSON.stringify(c.doc))
+  cases.forEach((c, k) => {
+    const problem = c.check(solve(JSON.parse(texts[k]!)))
+    if (problem) throw new Error(`case "${c.name}": ${problem}`)
+  })
+  // the JIT takes a few seconds to settle: warm every case up once before timing any of them
+  note('  warming up…')
+  texts.forEach((text) => {
+    const start = performance.now()
+    for (let i = 0; i < 5 || (performance.now() - start < 600 && i < 20000); i++) solve(JSON.parse(text))
+  })
+  cases.forEach((c, k) => {
+    const text = texts[k]!
+    note(`  ${c.name}: engine…`)
+    const engine = timeEngine(text)
+    let spice: { micros: number; points: number } | undefined
+    if (ngspice && dir) {
+      note(`  ${c.name}: ngspice…`)
+      spice = timeNgspice(ngspice, dir, `case${k}`, c.doc)
+    }
+    rows.push({
+      name: c.name,
+      units: c.units,
+      engineMicros: Math.round(engine.micros * 10) / 10,
+      ngspiceMicros: spice ? Math.round(spice.micros * 10) / 10 : null,
+      iterations: engine.iterations,
+      points: spice?.points ?? null,
+    })
+  })
+} finally {
+  if (dir) rmSync(dir, { recursive: true, force: true })
+}
+
+if (json) {
+  process.stdout.write(`${JSON.stringify({ cases: rows.map(({ name, units, engineMicros, ngspiceMicros }) => ({ name, units, engineMicros, ngspiceMicros })) })}\n`)
+} else {
+  const fmt = (us: number) => (us >= 10000 ? `${(us / 1000).toFixed(1)} ms` : `${us.toFixed(1)} µs`)
+  const table = [
+    ['case', 'units', 'engine / solve', 'solves timed', 'ngspice / point', 'points', 'engine ÷ ngspice'],
+    ...rows.map((r) => [
+      r.name,
+      String(r.units),
+      fmt(r.engineMicros),
+      String(r.iterations),
+      r.ngspiceMicros === null ? '—' : fmt(r.ngspiceMicros),
+      r.points === null ? '—' : String(r.points),
+      r.ngspiceMicros === null ? '—' : `${(r.engineMicros / r.ngspiceMicros).toFixed(1)} ×`,
+    ]),
+  ]
+  const widths = table[0]!.map((_, i) => Math.max(...table.map((row) => row[i]!.length)))
+  const line = (row: string[]) => row.map((cell, i) => (i === 0 ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!))).join('  ')
+  const out = [line(table[0]!), widths.map((w) => '-'.repeat(w)).join('  '), ...table.slice(1).map(line)]
+  const three = rows.find((r) => r.name.startsWith('closed delta'))
+  const big = rows.find((r) => r.units === 300)
+  const mid = rows.find((r) => r.units === 30 && r.name.startsWith('network'))
+  out.push('', 'issue 3 targets (for reading, not asserted):')
+  if (three) out.push(`  3-unit closed delta ≤ 100 µs: ${fmt(three.engineMicros)}`)
+  if (big) out.push(`  300-unit network ≤ 50 ms: ${fmt(big.engineMicros)}`)
+  if (mid) out.push(`  30-unit network within 10 × of ngspice per point: ${mid.ngspiceMicros === null ? 'ngspice absent' : `${(mid.engineMicros / mid.ngspiceMicros).toFixed(1)} ×`}`)
+  process.stdout.write(`${out.join('\n')}\n`)
+}
