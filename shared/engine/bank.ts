@@ -57,7 +57,7 @@ export function contactMerge(topo: Topology, open: ReadonlySet<string>): (node: 
 }
 
 function isUsed(topo: Topology, unit: Unit, terminal: string): boolean {
-  const node = topo.terminalNode.get(`${unit.id}.${terminal}`)!
+  const node = unit.node[terminal]!
   if (node < 0) return true
   return topo.nodeLabels[node]!.some((label) => {
     if (label === `${unit.id}.${terminal}`) return false
@@ -81,7 +81,7 @@ export function unitCoilMode(topo: Topology, unit: Unit): UnitCoilMode {
 
 function readCoilMode(topo: Topology, unit: Unit): UnitCoilMode {
   if (unit.windings.length < 3) return 'single'
-  const n = (t: string) => topo.terminalNode.get(`${unit.id}.${t}`)!
+  const n = (t: string) => unit.node[t]!
   const same = (a: string, b: string) => n(a) === n(b)
   if (same('X1', 'X3') && same('X2', 'X4')) return same('X1', 'X2') ? 'other' : 'parallel'
   if (same('X1', 'X4') && same('X2', 'X3')) return 'antiparallel'
@@ -94,7 +94,7 @@ function readCoilMode(topo: Topology, unit: Unit): UnitCoilMode {
 }
 
 function secondaryEdges(topo: Topology, unit: Unit): BankEdge[] {
-  const node = (t: string) => topo.terminalNode.get(`${unit.id}.${t}`)!
+  const node = (t: string) => unit.node[t]!
   const edge = (fromTerminal: string, toTerminal: string, windings: number[]): BankEdge => ({
     unit: unit.id,
     fromTerminal: `${unit.id}.${fromTerminal}`,

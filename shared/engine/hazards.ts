@@ -46,14 +46,18 @@ function voltage(ctx: HazardContext, terminal: string): C {
 }
 
 function unitOf(ctx: HazardContext, id: string): Unit {
-  return ctx.topo.units.find((u) => u.id === id)!
+  return ctx.topo.unitById.get(id)!
+}
+
+function nodeVoltage(ctx: HazardContext, node: number): C {
+  return node < 0 ? [0, 0] : [ctx.sol.vRe[node]!, ctx.sol.vIm[node]!]
 }
 
 /** Open-circuit EMF of an edge, estimated from its unit's primary terminal voltage and turns. */
 function edgeEmf(ctx: HazardContext, e: BankEdge): C {
   const unit = unitOf(ctx, e.unit)
   const primary = unit.windings[0]!
-  const vp = sub(voltage(ctx, `${unit.id}.${primary.dot}`), voltage(ctx, `${unit.id}.${primary.undot}`))
+  const vp = sub(nodeVoltage(ctx, primary.a), nodeVoltage(ctx, primary.b))
   const turns = e.windings.reduce((s, w) => s + unit.windings[w]!.turns, 0)
   return scale(vp, turns / primary.turns)
 }
@@ -126,12 +130,12 @@ export function loopHazards(ctx: HazardContext): { hazards: Hazard[]; checks: Cl
 /** Coils or units joined at like ends, about to be paralleled: the last pair must read near 0 V. */
 function parallelHazards(ctx: HazardContext): Hazard[] {
   const hazards: Hazard[] = []
-  const node = (t: string) => ctx.merge(ctx.topo.terminalNode.get(t)!)
   for (const unit of ctx.topo.units) {
     if (unit.windings.length < 3) continue
     const id = unit.id
-    const x13 = node(`${id}.X1`) === node(`${id}.X3`)
-    const x24 = node(`${id}.X2`) === node(`${id}.X4`)
+    const node = (t: string) => ctx.merge(unit.node[t]!)
+    const x13 = node('X1') === node('X3')
+    const x24 = node('X2') === node('X4')
     if (x13 === x24) continue
     const gap: [string, string] = x13 ? [`${id}.X2`, `${id}.X4`] : [`${id}.X1`, `${id}.X3`]
     const volts = abs(sub(voltage(ctx, gap[0]), voltage(ctx, gap[1])))
@@ -185,7 +189,7 @@ export function windingHazards(ctx: HazardContext): Hazard[] {
     let worstV = { ratio: 0, name: '', volts: 0, rated: 0 }
     let worstA = { ratio: 0, name: '', amps: 0, rated: 0 }
     unit.windings.forEach((w, k) => {
-      const volts = abs(sub(voltage(ctx, `${unit.id}.${w.dot}`), voltage(ctx, `${unit.id}.${w.undot}`)))
+      const volts = abs(sub(nodeVoltage(ctx, w.a), nodeVoltage(ctx, w.b)))
       const amps = abs([solved.current[k]!.re, solved.current[k]!.im])
       if (volts / w.ratedVolts > worstV.ratio) worstV = { ratio: volts / w.ratedVolts, name: w.name, volts, rated: w.ratedVolts }
       if (amps / w.ratedAmps > worstA.ratio) worstA = { ratio: amps / w.ratedAmps, name: w.name, amps, rated: w.ratedAmps }

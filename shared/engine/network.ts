@@ -52,6 +52,8 @@ export interface Unit {
   id: string
   spec: Transformer
   windings: Winding[]
+  /** the node of each of its terminals: node.X3 */
+  node: Record<string, number>
 }
 
 export interface SupplyPhase {
@@ -72,6 +74,7 @@ export interface SwitchPole {
 export interface Topology {
   circuit: Circuit
   byId: Map<string, Component>
+  unitById: Map<string, Unit>
   /** node of each terminal "ID.T"; -1 is ground (the reference) */
   terminalNode: Map<string, number>
   /** circuit nodes plus the hidden star point of each delta supply */
@@ -216,7 +219,9 @@ export function buildTopology(circuit: Circuit): Topology {
         if (c.secondaryVolts.length === 2) {
           add('X3-X4', 'X3', 'X4', c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
         }
-        units.push({ id: c.id, spec: c, windings })
+        const node: Record<string, number> = {}
+        for (const t of terminalsOf(c)) node[t] = at(c.id, t)
+        units.push({ id: c.id, spec: c, windings, node })
         break
       }
       case 'breaker':
@@ -235,7 +240,8 @@ export function buildTopology(circuit: Circuit): Topology {
         break
     }
   }
-  const topo: Topology = { circuit, byId, terminalNode, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters }
+  const unitById = new Map(units.map((u) => [u.id, u]))
+  const topo: Topology = { circuit, byId, unitById, terminalNode, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters }
   checkSourceLoops(topo)
   return topo
 }

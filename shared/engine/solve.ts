@@ -226,10 +226,8 @@ function buildResult(
 function isEnergized(topo: Topology, merge: (n: number) => number): boolean {
   const live = new Set(topo.phases.map((p) => merge(p.line)))
   if (live.size === 0) return false
-  for (const [name, node] of topo.terminalNode) {
-    if (!live.has(merge(node))) continue
-    const kind = topo.byId.get(name.slice(0, name.lastIndexOf('.')))?.kind
-    if (kind === 'transformer' || kind === 'load' || kind === 'output') return true
-  }
-  return false
+  const reached = (node: number) => live.has(merge(node))
+  if (topo.units.some((u) => u.windings.some((w) => reached(w.a) || reached(w.b)))) return true
+  if (topo.loads.some((l) => reached(l.a) || reached(l.b))) return true
+  return topo.circuit.components.some((c) => c.kind === 'output' && ['a', 'b', 'c', 'n'].some((t) => reached(topo.terminalNode.get(`${c.id}.${t}`)!)))
 }

@@ -10,7 +10,8 @@ const root = new URL('../..', import.meta.url).pathname
 const example = new URL('../../examples/one-unit-series.json', import.meta.url).pathname
 const run = (...args: string[]) => spawnSync('npm', ['run', '--silent', 'solve', '--', ...args], { cwd: root, encoding: 'utf8' })
 
-describe('npm run solve', () => {
+// each case starts npm and tsx: seconds, more on a busy machine
+describe('npm run solve', { timeout: 30_000 }, () => {
   it('prints the result of the example document as JSON, the same as the engine', () => {
     const out = run(example)
     expect(out.status).toBe(0)
