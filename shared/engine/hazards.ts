@@ -24,7 +24,7 @@ type C = [number, number]
 const sub = (a: C, b: C): C => [a[0] - b[0], a[1] - b[1]]
 const addc = (a: C, b: C): C => [a[0] + b[0], a[1] + b[1]]
 const scale = (a: C, k: number): C => [a[0] * k, a[1] * k]
-const abs = (a: C) => Math.hypot(a[0], a[1])
+const abs = (a: C) => Math.sqrt(a[0] * a[0] + a[1] * a[1])
 const fmtV = (v: number) => `${v.toFixed(1)} V`
 const fmtA = (a: number) => `${a >= 100 ? a.toFixed(0) : a.toFixed(1)} A`
 const pct = (x: number) => `${Math.round(x * 100)} %`

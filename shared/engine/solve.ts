@@ -17,7 +17,7 @@ export class CircuitValidationError extends Error {
 }
 
 const round = (x: number, digits: number) => {
-  const k = 10 ** digits
+  const k = digits === 4 ? 1e4 : digits === 2 ? 100 : 10 ** digits
   const r = Math.round(x * k) / k
   return r === 0 ? 0 : r
 }
@@ -30,7 +30,7 @@ export function degreesOf(re: number, im: number): number {
 }
 
 function reading(re: number, im: number): Reading {
-  const volts = Math.hypot(re, im)
+  const volts = Math.sqrt(re * re + im * im)
   if (volts < 1e-6) return { volts: 0, degrees: 0 }
   const deg = round(degreesOf(re, im), 2)
   return { volts: round(volts, 4), degrees: deg === -180 ? 180 : deg }
@@ -61,7 +61,8 @@ function deviceAmps(topo: Topology, sol: StageSolution, open: ReadonlySet<string
   const amps = new Map<string, number>()
   topo.poles.forEach((p, k) => {
     if (open.has(p.device)) return
-    const i = Math.hypot(sol.poleCurrent[k]!.re, sol.poleCurrent[k]!.im)
+    const c = sol.poleCurrent[k]!
+    const i = Math.sqrt(c.re * c.re + c.im * c.im)
     amps.set(p.device, Math.max(amps.get(p.device) ?? 0, i))
   })
   return amps
@@ -158,10 +159,8 @@ function buildResult(
   const vt = (terminal: string) => V(topo.terminalNode.get(terminal)!)
 
   const terminals: Record<string, Reading> = {}
-  for (const [name, node] of topo.terminalNode) {
-    const [re, im] = V(node)
-    terminals[name] = reading(re, im)
-  }
+  const { vRe, vIm } = sol
+  for (const [name, node] of topo.terminalNode) terminals[name] = node < 0 ? { volts: 0, degrees: 0 } : reading(vRe[node]!, vIm[node]!)
   const meters: Record<string, Reading> = {}
   for (const m of topo.meters) {
     const [ar, ai] = V(m.a)
@@ -174,7 +173,7 @@ function buildResult(
       const [ar, ai] = V(w.a)
       const [br, bi] = V(w.b)
       const i = sol.units[ui]!.current[k]!
-      windings[`${u.id}.${w.name}`] = { ...reading(ar - br, ai - bi), amps: round(Math.hypot(i.re, i.im), 4) }
+      windings[`${u.id}.${w.name}`] = { ...reading(ar - br, ai - bi), amps: round(Math.sqrt(i.re * i.re + i.im * i.im), 4) }
     })
   })
   for (const [id, amps] of deviceAmps(topo, sol, open)) {

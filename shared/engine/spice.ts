@@ -18,7 +18,7 @@ export const COUPLING = 1 - 1e-9
 export const MAGNETIZING_PER_UNIT = 1e4
 
 export interface SpiceOptions {
-  /** number of identical .ac points (for timing ngspice per point); 1 by default */
+  /** number of .ac points at (all but exactly) the supply frequency, for timing ngspice per point; 1 by default */
   points?: number
 }
 
@@ -131,7 +131,9 @@ function writeNetlist(circuit: Circuit, options: SpiceOptions): { netlist: strin
   }
 
   const points = Math.max(1, Math.floor(options.points ?? 1))
-  lines.push('.control', `ac lin ${points} ${num(hz)} ${num(hz)}`)
+  // ngspice 39 runs `ac lin N f f` as a single point: repeated points need a sliver of a span
+  const stop = points > 1 ? hz * (1 + 1e-8) : hz
+  lines.push('.control', `ac lin ${points} ${num(hz)} ${num(stop)}`)
   for (const p of probes) lines.push(`print ${p.vectors.join(' ')}`)
   lines.push('quit', '.endc', '.end', '')
   return { netlist: lines.join('\n'), probes }
