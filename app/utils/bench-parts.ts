@@ -38,3 +38,12 @@ export function formatValue(value: number, degrees?: number, unit = 'V'): string
   const magnitude = `${value >= 1000 ? value.toFixed(0) : value.toFixed(1)} ${unit}`
   return degrees === undefined ? magnitude : `${magnitude} ∠ ${formatAngle(degrees)}`
 }
+
+/** Plain titles for the engine's hazard codes. */
+export const HAZARD_TITLES: Record<string, string> = {
+  'reversed-winding': 'A unit is connected backwards',
+  'loop-voltage': 'Voltage across a gap',
+  'fault-current': 'Fault current',
+  'winding-overvoltage': 'Winding over its voltage',
+  overload: 'Overload',
+}

@@ -97,17 +97,20 @@ export function loopHazards(ctx: HazardContext): { hazards: Hazard[]; checks: Cl
     if (reversed) {
       const edge = loop.path[odd]!.edge
       const leads = `${short(edge.fromTerminal)} and ${short(edge.toTerminal)}`
-      const where = loop.gap ? `the closing check across ${loop.gap[0]} – ${loop.gap[1]} reads ${fmtV(gapVolts)}` : `the loop adds up to about ${fmtV(gapVolts)}`
+      // closed: what would stand across a corner if it were opened, on the nameplate (the
+      // solved EMFs sag under the short-circuit current itself, so they would understate it)
+      const where = loop.gap ? `the closing check across ${loop.gap[0]} – ${loop.gap[1]} reads ${fmtV(gapVolts)}` : `about ${fmtV(2 * coilVolts)} would stand across a corner if it were opened`
       hazards.push({
         code: 'reversed-winding',
         severity: 'danger',
         units: [edge.unit],
-        volts: gapVolts,
+        volts: loop.gap ? gapVolts : 2 * coilVolts,
+        ...(loop.gap && { onClosing: true }),
         message: loop.gap
           ? `${edge.unit} is connected backwards in the delta: ${where}, about twice the ${fmtV(coilVolts)} coil voltage, where a correct delta reads near 0 V. ` +
             `Do not close this corner: it would be a dead short around the delta that only a fuse or breaker would stop. ` +
             `De-energize, lock out, reverse ${edge.unit}'s secondary leads (${leads}), then repeat the closing check.`
-          : `${edge.unit} is connected backwards in a closed delta: ${where} where the coils should cancel (one unit backwards puts about twice the ${fmtV(coilVolts)} coil voltage around the loop), ` +
+          : `${edge.unit} is connected backwards in a closed delta: ${where}, about twice the ${fmtV(coilVolts)} coil voltage, where the coils should cancel to near 0 V, ` +
             `so a short-circuit current circulates around the delta. De-energize at once, lock out, open one corner, reverse ${edge.unit}'s secondary leads (${leads}) ` +
             `and repeat the closing check before closing the corner again.`,
       })
@@ -117,6 +120,7 @@ export function loopHazards(ctx: HazardContext): { hazards: Hazard[]; checks: Cl
         severity: 'danger',
         units,
         volts: gapVolts,
+        onClosing: true,
         message:
           `The closing check across ${loop.gap[0]} – ${loop.gap[1]} reads ${fmtV(gapVolts)} (${pct(gapVolts / coilVolts)} of the ${fmtV(coilVolts)} coil voltage), where a correct delta reads near 0 V. ` +
           `Closing this corner would drive a circulating current around the delta. Check that ${units.join(', ')} are fed from three different phases in rotation, share the same ratio and tap, and are marked correctly.`,
@@ -146,6 +150,7 @@ function parallelHazards(ctx: HazardContext): Hazard[] {
       severity: 'danger',
       units: [id],
       volts,
+      onClosing: true,
       message:
         `${id}'s coils are joined ${x13 ? 'X1 to X3' : 'X2 to X4'}, and ${gap[0]} – ${gap[1]} reads ${fmtV(volts)}: coils about to be paralleled must read near 0 V there. ` +
         `Joining them would short one coil through the other. Check the coil voltages on the nameplate and the unit's terminal marking before joining.`,
@@ -174,6 +179,7 @@ function parallelHazards(ctx: HazardContext): Hazard[] {
       severity: 'danger',
       units: [e1.unit, e2.unit],
       volts,
+      onClosing: true,
       message:
         `${e1.unit} and ${e2.unit} are joined at one end as if to be paralleled, and ${far1} – ${far2} reads ${fmtV(volts)} instead of near 0 V. ` +
         `Joining those ends would short one unit through the other. Check polarity (one unit may be reversed), ratio and tap before paralleling.`,

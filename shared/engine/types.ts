@@ -38,6 +38,11 @@ export interface Hazard {
   volts?: number
   amps?: number
   message: string
+  /**
+   * true when the danger is in closing a gap (an open corner, coils about to be paralleled):
+   * the bank may be energized to measure it, the gap must not be closed
+   */
+  onClosing?: boolean
 }
 
 /** An open corner of a delta: the reading a closing check takes before the corner is closed. */

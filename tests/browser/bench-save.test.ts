@@ -12,6 +12,7 @@ beforeAll(async () => {
   browser = await launch()
   page = await browser.newPage()
   await page.setViewportSize({ width: 1600, height: 1000 })
+  page.on('dialog', (dialog) => void dialog.accept())
   await page.goto('/sign-in')
   await page.getByLabel('E-mail').fill('practitioner@phaseloom.test')
   await page.getByLabel('Password').fill('phaseloom-demo')

@@ -11,6 +11,8 @@ beforeAll(async () => {
   browser = await launch()
   page = await browser.newPage()
   await page.setViewportSize({ width: 1600, height: 1000 })
+  // leaving an edited, unsaved bank asks first (beforeunload): the tests move on
+  page.on('dialog', (dialog) => void dialog.accept())
 })
 afterAll(async () => {
   await browser?.close()
@@ -61,6 +63,23 @@ describe('the Bench', () => {
     await screenshot(page, 'bench-1-dragged-jumper')
   })
 
+  it('closing the breaker onto a bank that would short asks first and says what would happen', async () => {
+    await openStarter('closed-delta-240')
+    await keyboardRemove('T1.X4', 'T2.X1')
+    await keyboardRemove('T2.X4', 'T3.X1')
+    await keyboardRemove('OUT.b', 'T2.X1')
+    await keyboardJumper('T1.X4', 'T2.X4')
+    await keyboardJumper('T2.X1', 'T3.X1')
+    await keyboardJumper('OUT.b', 'T2.X4')
+    await page.getByTestId('energize').click()
+    const dialog = page.getByTestId('energize-dialog')
+    await expect.poll(() => dialog.isVisible()).toBe(true)
+    expect(await dialog.textContent()).toMatch(/T2 is connected backwards in a closed delta/)
+    await screenshot(page, 'bench-2b-energize-question')
+    await page.getByRole('button', { name: 'Keep CB1 open' }).click()
+    expect(await meterVolts('Mab')).toBeLessThan(0.5)
+  })
+
   it('the closed delta starter, energized, reads 240 V ± 1 % line to line', async () => {
     await openStarter('closed-delta-240')
     expect(await meterVolts('Mab')).toBeLessThan(0.5) // de-energized
@@ -87,11 +106,12 @@ describe('the Bench', () => {
     await expect.poll(() => jumper('T2.X1', 'T3.X1').count()).toBe(1)
     expect(await page.getByTestId('closing-check').count()).toBe(1)
 
+    // de-energized, the Bench already says what closing CB1 would find
+    expect(await page.getByTestId('if-energized').textContent()).toMatch(/connected backwards \(T2\): safe to measure energized; do not close the gap/)
+    // energizing with the corner open is the closing check itself: no question asked
     await page.getByTestId('energize').click()
-    const dialog = page.getByTestId('energize-dialog')
-    await expect.poll(() => dialog.isVisible()).toBe(true)
-    expect(await dialog.textContent()).toMatch(/T2 is connected backwards/)
-    await page.getByTestId('energize-anyway').click()
+    expect(await page.getByTestId('energize-dialog').isVisible()).toBe(false)
+    await expect.poll(() => meterVolts('MC')).toBeGreaterThan(400)
 
     const gap = await meterVolts('MC')
     expect(gap).toBeGreaterThan(480 * 0.97)
@@ -111,6 +131,15 @@ describe('the Bench', () => {
     await expect.poll(() => log.count()).toBe(1)
     expect(await log.textContent()).toMatch(/F\d blown/)
     await screenshot(page, 'bench-4-closed-onto-reversed-unit')
+  })
+
+  it('tapping one terminal and then another of the same unit makes a jumper', async () => {
+    await openStarter('single-unit-parallel-120')
+    await page.locator('[data-terminal="T1.X1"]').click()
+    await expect.poll(() => page.getByTestId('bench-notice').textContent()).toContain('T1 terminal X1 picked')
+    expect(await page.locator('[data-terminal="T1.X1"]').getAttribute('aria-pressed')).toBe('true')
+    await page.locator('[data-terminal="T1.X4"]').click()
+    await expect.poll(() => jumper('T1.X1', 'T1.X4').count()).toBe(1)
   })
 
   it('a jumper can be made with the keyboard alone', async () => {

@@ -16,10 +16,16 @@ describe('BenchInspector', () => {
 
     await kva.setValue('-5')
     await kva.trigger('input')
-    expect(wrapper.get('#insp-kva-err').text()).toBe('kva must be greater than 0')
+    expect(wrapper.get('#insp-kva-err').text()).toBe('kVA must be greater than 0')
     expect(kva.attributes('aria-invalid')).toBe('true')
     await kva.trigger('change')
     expect(bench.doc.components.find((c) => c.id === 'T2')).toMatchObject({ kva: 10 })
+
+    // what is not a number stays as typed, and the message names the field as the form does
+    await kva.setValue('abc')
+    await kva.trigger('input')
+    expect((kva.element as HTMLInputElement).value).toBe('abc')
+    expect(wrapper.get('#insp-kva-err').text()).toBe('kVA must be a number')
 
     await kva.setValue('25')
     await kva.trigger('change')

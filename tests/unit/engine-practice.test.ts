@@ -51,6 +51,17 @@ describe('common practice of the trade (no published source)', () => {
     expect(parallel.hazards).toEqual([])
   })
 
+  it('the open-corner hazard is about closing it: energizing to take the reading is allowed', () => {
+    const open = solve(buildBank({ ...closedDelta, openCorner: true, reversed: ['T1'] }))
+    expect(open.hazards).toEqual([expect.objectContaining({ code: 'reversed-winding', onClosing: true })])
+    const closed = solve(buildBank({ ...closedDelta, reversed: ['T1'] }))
+    const ring = closed.hazards.find((h) => h.code === 'reversed-winding')!
+    expect(ring.onClosing).toBeUndefined()
+    // the same mistake is stated with the same number, open or closed: about twice the coil voltage
+    within(ring.volts!, 480, 0.02)
+    expect(ring.message).toMatch(/480\.\d V would stand across a corner/)
+  })
+
   it('closing a delta onto a reversed unit opens the protection', () => {
     const r = solve(buildBank({ ...closedDelta, reversed: ['T2'] }))
     expect(r.hazards.map((h) => h.code)).toEqual(expect.arrayContaining(['reversed-winding', 'fault-current']))
