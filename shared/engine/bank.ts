@@ -38,7 +38,8 @@ export interface DeltaLoop {
 
 /** Nodes joined through closed breakers and intact fuses count as one for the bank's shape. */
 export function contactMerge(topo: Topology, open: ReadonlySet<string>): (node: number) => number {
-  const parent = new Int32Array(topo.nodeCount + 1).map((_, i) => i)
+  const parent = new Array<number>(topo.nodeCount + 1)
+  for (let i = 0; i <= topo.nodeCount; i++) parent[i] = i
   const key = (n: number) => (n < 0 ? topo.nodeCount : n)
   const find = (x: number): number => {
     while (parent[x] !== x) {

@@ -88,9 +88,10 @@ export interface Topology {
 }
 
 class UnionFind {
-  parent: Int32Array
+  parent: number[]
   constructor(n: number) {
-    this.parent = new Int32Array(n).map((_, i) => i)
+    this.parent = new Array<number>(n)
+    for (let i = 0; i < n; i++) this.parent[i] = i
   }
 
   find(x: number): number {
@@ -276,8 +277,9 @@ export interface UnitSolution {
 }
 
 export interface StageSolution {
-  vRe: Float64Array
-  vIm: Float64Array
+  /** node voltages, by node index (the supply phases' unknowns follow the nodes) */
+  vRe: readonly number[]
+  vIm: readonly number[]
   units: UnitSolution[]
   /** supply phase currents out of the line terminal, in topology order */
   phaseCurrent: { re: number; im: number }[]
@@ -305,15 +307,15 @@ export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolu
   for (const m of topo.meters) sys.addAdmittance(m.a, m.b, 1 / VOLTMETER_OHMS, 0)
   for (const u of topo.units) stampUnit(sys, u)
 
-  let x: { re: Float64Array; im: Float64Array }
+  let x: { re: number[]; im: number[] }
   try {
     x = sys.solve()
   } catch (e) {
     if (e instanceof SingularSystemError) throw singularError(topo, e.unknown)
     throw e
   }
-  const vRe = x.re.subarray(0, n)
-  const vIm = x.im.subarray(0, n)
+  const vRe = x.re
+  const vIm = x.im
   const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [vRe[node]!, vIm[node]!])
 
   const units = topo.units.map((u) => unitSolution(u, V))

@@ -173,7 +173,8 @@ function buildResult(
       const [ar, ai] = V(w.a)
       const [br, bi] = V(w.b)
       const i = sol.units[ui]!.current[k]!
-      windings[`${u.id}.${w.name}`] = { ...reading(ar - br, ai - bi), amps: round(Math.sqrt(i.re * i.re + i.im * i.im), 4) }
+      const r = reading(ar - br, ai - bi)
+      windings[`${u.id}.${w.name}`] = { volts: r.volts, degrees: r.degrees, amps: round(Math.sqrt(i.re * i.re + i.im * i.im), 4) }
     })
   })
   for (const [id, amps] of deviceAmps(topo, sol, open)) {

@@ -9,6 +9,13 @@
  * unless sources form a loop — checked before solving, and caught here as a last resort).
  */
 
+/**
+ * Vectors are plain arrays of numbers: V8 makes those far faster than typed arrays for the
+ * small sizes of a bank (a typed array costs about a microsecond to allocate here).
+ */
+export type Vec = number[]
+const zeros = (n: number): Vec => new Array<number>(n).fill(0)
+
 export class SingularSystemError extends Error {
   constructor(readonly unknown: number) {
     super(`the network equations have no unique solution (unknown ${unknown})`)
@@ -84,40 +91,43 @@ class DegreeHeap {
 /** Below this many unknowns a dense factorisation is faster than the sparse one. */
 export const DENSE_LIMIT = 48
 
+const EMPTY_BUFFER = new ComplexBuffer(0)
+
 export class ComplexSymmetricSystem {
   /** rows[i] maps a neighbour j to the slot of the off-diagonal entry A[i][j] = A[j][i]. */
   private rows: Map<number, number>[]
-  private diagRe: Float64Array
-  private diagIm: Float64Array
+  private diagRe: Vec
+  private diagIm: Vec
   private off: ComplexBuffer
   private offI: number[] = []
   private offJ: number[] = []
-  readonly rhsRe: Float64Array
-  readonly rhsIm: Float64Array
+  readonly rhsRe: Vec
+  readonly rhsIm: Vec
 
   /**
    * @param size number of unknowns
    * @param lateFrom rows at or after this index (ideal-source rows) are eliminated last
    */
   /** a small system is kept dense: A[i][j] at i·size + j */
-  private denseRe: Float64Array | null = null
-  private denseIm: Float64Array | null = null
+  private denseRe: Vec | null = null
+  private denseIm: Vec | null = null
 
   constructor(
     readonly size: number,
     private readonly lateFrom = size,
   ) {
-    this.rhsRe = new Float64Array(size)
-    this.rhsIm = new Float64Array(size)
-    this.diagRe = new Float64Array(size)
-    this.diagIm = new Float64Array(size)
+    this.rhsRe = zeros(size)
+    this.rhsIm = zeros(size)
     if (size <= DENSE_LIMIT) {
-      this.denseRe = new Float64Array(size * size)
-      this.denseIm = new Float64Array(size * size)
+      this.denseRe = zeros(size * size)
+      this.denseIm = zeros(size * size)
+      this.diagRe = this.diagIm = []
       this.rows = []
-      this.off = new ComplexBuffer(0)
+      this.off = EMPTY_BUFFER
       return
     }
+    this.diagRe = zeros(size)
+    this.diagIm = zeros(size)
     this.rows = Array.from({ length: size }, () => new Map<number, number>())
     this.off = new ComplexBuffer(size * 4)
   }
@@ -168,7 +178,7 @@ export class ComplexSymmetricSystem {
   }
 
   /** Solves and returns x; the system is consumed (factorised in place). */
-  solve(): { re: Float64Array; im: Float64Array } {
+  solve(): { re: Vec; im: Vec } {
     if (this.denseRe) return this.solveDense()
     const n = this.size
     const origCount = this.off.length
@@ -176,7 +186,7 @@ export class ComplexSymmetricSystem {
     const origOffIm = this.off.im.slice(0, origCount)
     const origDiagRe = this.diagRe.slice()
     const origDiagIm = this.diagIm.slice()
-    const rowScale = new Float64Array(n)
+    const rowScale = zeros(n)
     for (let i = 0; i < n; i++) rowScale[i] = Math.hypot(this.diagRe[i]!, this.diagIm[i]!)
     for (let s = 0; s < origCount; s++) {
       const m = Math.hypot(origOffRe[s]!, origOffIm[s]!)
@@ -220,13 +230,13 @@ export class ComplexSymmetricSystem {
    * Dense LDLᵀ in index order (node rows first, ideal-source rows last, as the sparse path
    * orders them), then one step of iterative refinement.
    */
-  private solveDense(): { re: Float64Array; im: Float64Array } {
+  private solveDense(): { re: Vec; im: Vec } {
     const n = this.size
     const aRe = this.denseRe!
     const aIm = this.denseIm!
     const origRe = aRe.slice()
     const origIm = aIm.slice()
-    const rowScale = new Float64Array(n)
+    const rowScale = zeros(n)
     for (let i = 0; i < n; i++) {
       let m = 0
       for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(aRe[i * n + j]!) + Math.abs(aIm[i * n + j]!))
@@ -262,7 +272,7 @@ export class ComplexSymmetricSystem {
         aIm[i * n + k] = li
       }
     }
-    const apply = (bRe: Float64Array, bIm: Float64Array) => {
+    const apply = (bRe: Vec, bIm: Vec) => {
       const yRe = bRe.slice()
       const yIm = bIm.slice()
       for (let i = 0; i < n; i++) {
@@ -320,7 +330,7 @@ export class ComplexSymmetricSystem {
     return x
   }
 
-  private factorise(rowScale: Float64Array) {
+  private factorise(rowScale: Vec) {
     const n = this.size
     const rows = this.rows
     const dRe = this.diagRe
@@ -414,7 +424,7 @@ export class ComplexSymmetricSystem {
     const pivIm = dIm.slice()
 
     return {
-      apply(bRe: Float64Array, bIm: Float64Array) {
+      apply(bRe: Vec, bIm: Vec) {
         const yRe = bRe.slice()
         const yIm = bIm.slice()
         for (let step = 0; step < n; step++) {
