@@ -10,7 +10,10 @@ export function useBenchShortcuts(openHelp: () => void) {
     else if (mod && ((key === 'z' && e.shiftKey) || key === 'y')) bench.redo()
     else if (mod && key === 'c') bench.copySelected()
     else if (mod && key === 'v' && bench.clipboard) bench.paste(nextPartId(bench.clipboard.kind, bench.doc.components.map((c) => c.id)))
-    else if (e.key === 'Escape' && bench.pendingTerminal) bench.pendingTerminal = null
+    else if (e.key === 'Escape' && bench.pendingTerminal) {
+      bench.pendingTerminal = null
+      bench.notice = { tone: 'info', text: 'Pick cancelled.' }
+    }
     else if (e.key === '?') openHelp()
     else return
     e.preventDefault()

@@ -266,6 +266,7 @@ export const useBenchStore = defineStore('bench', () => {
   /** Moves a breaker's handle (the page asks first when closing onto a flagged bank). */
   function setBreaker(id: string, closed: boolean) {
     eventLog.value = []
+    notice.value = null
     commit(previewBreaker(id, closed).next)
   }
 

@@ -36,7 +36,8 @@ export function terminalLabel(terminal: string): string {
 /** A value as a meter shows it: `239.8 V`, or with its angle `239.8 V ∠ 30.0°`; amps with unit 'A'. */
 export function formatValue(value: number, degrees?: number, unit = 'V'): string {
   const magnitude = `${value >= 1000 ? value.toFixed(0) : value.toFixed(1)} ${unit}`
-  return degrees === undefined ? magnitude : `${magnitude} ∠ ${formatAngle(degrees)}`
+  // a reading that shows as 0.0 has no angle worth reading
+  return degrees === undefined || value < 0.05 ? magnitude : `${magnitude} ∠ ${formatAngle(degrees)}`
 }
 
 /** Plain titles for the engine's hazard codes. */
