@@ -38,6 +38,8 @@ export function crossCheck(doc: unknown): CircuitError[] {
   if (!isRecord(doc) || !Array.isArray(doc.components)) return []
   const errors: CircuitError[] = []
   const byId = new Map<string, { index: number; kind: string; terminals: string[] }>()
+  /** every terminal name a wire may use, so a sound wire is one lookup per end */
+  const valid = new Set<string>()
   doc.components.forEach((c, index) => {
     if (!isRecord(c) || typeof c.id !== 'string') return
     const seen = byId.get(c.id)
@@ -46,29 +48,30 @@ export function crossCheck(doc: unknown): CircuitError[] {
       return
     }
     const kind = typeof c.kind === 'string' ? c.kind : ''
-    byId.set(c.id, { index, kind, terminals: terminalsOf(c as { kind: string }) })
+    const terminals = terminalsOf(c as { kind: string })
+    byId.set(c.id, { index, kind, terminals })
+    for (const t of terminals) valid.add(`${c.id}.${t}`)
   })
   if (!Array.isArray(doc.wires)) return errors
   doc.wires.forEach((w, index) => {
     if (!Array.isArray(w) || w.length !== 2) return
-    w.forEach((end, side) => {
-      if (typeof end !== 'string') return
+    if (w[0] === w[1] && typeof w[0] === 'string') errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
+    for (let side = 0; side < 2; side++) {
+      const end: unknown = w[side]
+      if (typeof end !== 'string' || valid.has(end)) continue
       const path = `wires[${index}][${side}]`
       const parts = splitTerminal(end)
       if (!parts) {
         errors.push({ path, message: `"${end}" is not a terminal name: write it as ID.TERMINAL, for example "T1.X1"` })
-        return
+        continue
       }
-      const [cid, terminal] = parts
+      const [cid] = parts
       const comp = byId.get(cid)
       if (!comp) {
         errors.push({ path, message: `unknown terminal "${end}": there is no component "${cid}"` })
-      } else if ((COMPONENT_KINDS as readonly string[]).includes(comp.kind) && !comp.terminals.includes(terminal)) {
+      } else if ((COMPONENT_KINDS as readonly string[]).includes(comp.kind)) {
         errors.push({ path, message: `unknown terminal "${end}": a ${comp.kind} "${cid}" has ${comp.terminals.join(', ')}` })
       }
-    })
-    if (typeof w[0] === 'string' && w[0] === w[1]) {
-      errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
     }
   })
   return errors

@@ -234,15 +234,20 @@ export class ComplexSymmetricSystem {
     const n = this.size
     const aRe = this.denseRe!
     const aIm = this.denseIm!
-    const origRe = aRe.slice()
-    const origIm = aIm.slice()
     const rowScale = zeros(n)
+    const diagRe = zeros(n)
+    const diagIm = zeros(n)
     for (let i = 0; i < n; i++) {
       let m = 0
       for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(aRe[i * n + j]!) + Math.abs(aIm[i * n + j]!))
       rowScale[i] = m
+      diagRe[i] = aRe[i * n + i]!
+      diagIm[i] = aIm[i * n + i]!
     }
-    // factorise in place: below the diagonal L (unit), on it D
+    // Factorise in the lower triangle only: L (unit) below the diagonal, D on it. The upper
+    // triangle is left as stamped, so it still holds the original matrix for the refinement.
+    const cRe = zeros(n)
+    const cIm = zeros(n)
     for (let k = 0; k < n; k++) {
       const pr = aRe[k * n + k]!
       const pi = aIm[k * n + k]!
@@ -251,22 +256,22 @@ export class ComplexSymmetricSystem {
       const invRe = pr / pm
       const invIm = -pi / pm
       for (let i = k + 1; i < n; i++) {
-        const ar = aRe[i * n + k]!
-        const ai = aIm[i * n + k]!
+        cRe[i] = aRe[i * n + k]!
+        cIm[i] = aIm[i * n + k]!
+      }
+      for (let i = k + 1; i < n; i++) {
+        const ar = cRe[i]!
+        const ai = cIm[i]!
         if (ar === 0 && ai === 0) continue
         const lr = ar * invRe - ai * invIm
         const li = ar * invIm + ai * invRe
-        // row i −= l · row k, for the columns right of k (the matrix stays symmetric)
+        // A[i][j] −= l_i · A[j][k] for k < j ≤ i
         for (let j = k + 1; j <= i; j++) {
-          const br = aRe[k * n + j]!
-          const bi = aIm[k * n + j]!
+          const br = cRe[j]!
+          const bi = cIm[j]!
           if (br === 0 && bi === 0) continue
           aRe[i * n + j]! -= lr * br - li * bi
           aIm[i * n + j]! -= lr * bi + li * br
-        }
-        for (let j = k + 1; j < i; j++) {
-          aRe[j * n + i] = aRe[i * n + j]!
-          aIm[j * n + i] = aIm[i * n + j]!
         }
         aRe[i * n + k] = lr
         aIm[i * n + k] = li
@@ -311,15 +316,20 @@ export class ComplexSymmetricSystem {
       return { re: yRe, im: yIm }
     }
     const x = apply(this.rhsRe, this.rhsIm)
+    // the residual against the original matrix: its diagonal, and its upper triangle
     const rRe = this.rhsRe.slice()
     const rIm = this.rhsIm.slice()
     for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        const ar = origRe[i * n + j]!
-        const ai = origIm[i * n + j]!
+      rRe[i]! -= diagRe[i]! * x.re[i]! - diagIm[i]! * x.im[i]!
+      rIm[i]! -= diagRe[i]! * x.im[i]! + diagIm[i]! * x.re[i]!
+      for (let j = i + 1; j < n; j++) {
+        const ar = aRe[i * n + j]!
+        const ai = aIm[i * n + j]!
         if (ar === 0 && ai === 0) continue
         rRe[i]! -= ar * x.re[j]! - ai * x.im[j]!
         rIm[i]! -= ar * x.im[j]! + ai * x.re[j]!
+        rRe[j]! -= ar * x.re[i]! - ai * x.im[i]!
+        rIm[j]! -= ar * x.im[i]! + ai * x.re[i]!
       }
     }
     const d = apply(rRe, rIm)
