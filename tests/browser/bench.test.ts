@@ -157,6 +157,17 @@ describe('the Bench', () => {
     await screenshot(page, 'bench-5-keyboard-jumper')
   })
 
+  it('marks the high leg of a four-wire delta in its own colour when energized (NEC 110.15: orange)', async () => {
+    await openStarter('high-leg-delta-240-120')
+    await page.getByTestId('energize').click()
+    await expect.poll(() => meterVolts('Mbn')).toBeGreaterThan(200)
+    const colourOf = (selector: string) => page.locator(selector).first().evaluate((el) => getComputedStyle(el).borderTopColor)
+    // the default convention (North America 120/240 V) marks the high leg orange: #e07a00
+    expect(await colourOf('[data-jumper*="OUT.b"]')).toBe('rgb(224, 122, 0)')
+    expect(await colourOf('[data-jumper*="OUT.a"]')).not.toBe('rgb(224, 122, 0)')
+    await screenshot(page, 'bench-6-high-leg')
+  })
+
   it('keeps the safety words in view', async () => {
     await openStarter('closed-delta-240')
     await expect.poll(() => page.getByTestId('bench-safety').textContent()).toContain('real banks can kill')
