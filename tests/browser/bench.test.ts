@@ -47,6 +47,8 @@ async function keyboardRemove(a: string, b: string) {
   await tag.focus()
   await page.keyboard.press('Delete')
   await expect.poll(() => jumper(a, b).count()).toBe(0)
+  // the keyboard stays on the bank: focus moves to one end of the jumper just removed
+  await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('data-terminal') ?? '')).toMatch(new RegExp(`^(${a}|${b})$`.replace(/\./g, '\\.')))
 }
 
 describe('the Bench', () => {
