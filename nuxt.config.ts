@@ -26,6 +26,8 @@ export default defineNuxtConfig({
     session: { maxAge: 60 * 60 * 24 * 7, cookie: { secure: true } },
     // 5 failed sign-ins per e-mail and IP within 15 minutes, then 429 until the window ends
     signInLimit: { attempts: 5, windowSeconds: 15 * 60 },
+    // probes per fault-hunt attempt: 30 within 30 s, then 429 until the window ends
+    probeLimit: { points: 30, windowSeconds: 30 },
     // SMTP for outgoing mail; npm start and npm test point it at the local mail catcher
     mail: { host: '', port: 587, secure: false, user: '', password: '', from: 'Phaseloom <no-reply@phaseloom.test>' },
     // the mail catcher's directory; set only in development (npm start, npm test), it turns

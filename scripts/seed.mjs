@@ -59,6 +59,42 @@ export const DEMO_BANKS = [
   },
 ]
 
+const unit = { kind: 'transformer', kva: 10, primaryVolts: 480, secondaryVolts: [120, 120] }
+
+/** The instructor's lab bank behind the demo hunt: a delta–delta with its last corner open. */
+export const DEMO_HUNT_BANK = {
+  format: 'phaseloom.circuit',
+  version: 1,
+  name: 'Bay 4: delta–delta 480 V to 240 V, last corner open',
+  components: [
+    supply,
+    { id: 'CB1', kind: 'breaker', poles: 3, amps: 60, closed: false },
+    { id: 'F1', kind: 'fuse', amps: 50 }, { id: 'F2', kind: 'fuse', amps: 50 }, { id: 'F3', kind: 'fuse', amps: 50 },
+    { id: 'T1', ...unit }, { id: 'T2', ...unit }, { id: 'T3', ...unit },
+    { id: 'OUT', kind: 'output' },
+  ],
+  wires: [
+    ['S1.A', 'CB1.L1'], ['S1.B', 'CB1.L2'], ['S1.C', 'CB1.L3'],
+    ['CB1.T1', 'F1.a'], ['CB1.T2', 'F2.a'], ['CB1.T3', 'F3.a'],
+    ['F1.b', 'T1.H1'], ['F2.b', 'T1.H2'], ['F2.b', 'T2.H1'], ['F3.b', 'T2.H2'], ['F3.b', 'T3.H1'], ['F1.b', 'T3.H2'],
+    ['T1.X2', 'T1.X3'], ['T2.X2', 'T2.X3'], ['T3.X2', 'T3.X3'],
+    ['T1.X4', 'T2.X1'], ['T2.X4', 'T3.X1'],
+    ['OUT.a', 'T1.X1'], ['OUT.b', 'T2.X1'], ['OUT.c', 'T3.X1'],
+  ],
+  layout: {
+    S1: { x: 0, y: 0 }, CB1: { x: 280, y: 0 }, F1: { x: 560, y: 0 }, F2: { x: 560, y: 120 }, F3: { x: 560, y: 240 },
+    T1: { x: 0, y: 390 }, T2: { x: 280, y: 390 }, T3: { x: 560, y: 390 }, OUT: { x: 280, y: 650 },
+  },
+}
+
+/** The demo class (both demo students in it) and the fault hunt published to it. */
+export const DEMO_CLASS = { name: 'Transformer Lab A', term: 'Winter 2027', joinCode: 'RVBLAB27', members: ['student@phaseloom.test', 'student2@phaseloom.test'] }
+export const DEMO_HUNT = {
+  title: 'Bay 4: one unit is not what it seems',
+  instructions: 'The bank is wired as a delta–delta with the last corner (T3.X4 to T1.X1) left open. Before you close that corner, take the closing check. If it is not near 0 V, find which unit is at fault with the meter and name it. Do not close the corner onto a fault.',
+  faults: [{ kind: 'secondary-reversed', component: 'T2' }],
+}
+
 let hasher
 /**
  * Hash a password exactly as nuxt-auth-utils' `hashPassword` does: @adonisjs/hash's
@@ -110,10 +146,42 @@ export async function seedDemo(url) {
         [ownerId, bank.document.name, JSON.stringify(bank.document)],
       )
     }
+    await seedClassAndHunt(connection)
   }
   finally {
     await connection.end()
   }
+}
+
+async function idOf(connection, email) {
+  const [rows] = await connection.execute('SELECT id FROM users WHERE email = ?', [email])
+  return rows[0].id
+}
+
+async function seedClassAndHunt(connection) {
+  const instructorId = await idOf(connection, 'instructor@phaseloom.test')
+  await connection.execute(
+    'INSERT IGNORE INTO classes (instructor_id, name, term, join_code) VALUES (?, ?, ?, ?)',
+    [instructorId, DEMO_CLASS.name, DEMO_CLASS.term, DEMO_CLASS.joinCode],
+  )
+  const [[klass]] = await connection.execute('SELECT id FROM classes WHERE join_code = ?', [DEMO_CLASS.joinCode])
+  for (const email of DEMO_CLASS.members) {
+    await connection.execute('INSERT IGNORE INTO class_members (class_id, user_id) VALUES (?, ?)', [klass.id, await idOf(connection, email)])
+  }
+  const [bankRows] = await connection.execute('SELECT id FROM banks WHERE owner_id = ? AND name = ? AND deleted_at IS NULL', [instructorId, DEMO_HUNT_BANK.name])
+  if (bankRows.length === 0) {
+    await connection.execute('INSERT INTO banks (owner_id, name, document) VALUES (?, ?, ?)', [instructorId, DEMO_HUNT_BANK.name, JSON.stringify(DEMO_HUNT_BANK)])
+  }
+  const [huntRows] = await connection.execute('SELECT id FROM hunts WHERE author_id = ? AND title = ? AND deleted_at IS NULL', [instructorId, DEMO_HUNT.title])
+  let huntId = huntRows[0]?.id
+  if (!huntId) {
+    const [inserted] = await connection.execute(
+      'INSERT INTO hunts (author_id, title, instructions, document, faults, secondary_prewired, probe_budget, feedback, published_at) VALUES (?, ?, ?, ?, ?, TRUE, 40, \'on-submit\', CURRENT_TIMESTAMP(3))',
+      [instructorId, DEMO_HUNT.title, DEMO_HUNT.instructions, JSON.stringify(DEMO_HUNT_BANK), JSON.stringify(DEMO_HUNT.faults)],
+    )
+    huntId = inserted.insertId
+  }
+  await connection.execute('INSERT IGNORE INTO hunt_classes (hunt_id, class_id) VALUES (?, ?)', [huntId, klass.id])
 }
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
-import { bigint, boolean, char, datetime, index, int, mysqlEnum, mysqlTable, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
+import { bigint, boolean, char, datetime, decimal, index, int, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { ROLES } from '../../shared/schemas/account'
+import type { Fault } from '../../shared/hunts/faults'
 import { jsonDocument } from './json-document'
 
 // One list of roles for the database, the server and the forms.
@@ -82,8 +83,113 @@ export const signInLimits = mysqlTable('sign_in_limits', {
   expire: bigint('expire', { mode: 'number', unsigned: true }),
 })
 
+/** A class an instructor teaches; students join by an e-mailed link or the join code. */
+export const classes = mysqlTable('classes', {
+  id: int('id').autoincrement().primaryKey(),
+  instructorId: int('instructor_id').notNull().references(() => users.id, { onDelete: 'restrict' }),
+  name: varchar('name', { length: 120 }).notNull(),
+  term: varchar('term', { length: 60 }).notNull().default(''),
+  // the lab-sheet tolerance, percent either side of the prediction
+  tolerancePercent: decimal('tolerance_percent', { precision: 4, scale: 1, mode: 'number' }).notNull().default(5),
+  joinCode: char('join_code', { length: 8 }).notNull().unique('classes_join_code_unique'),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+}, table => [index('classes_instructor_idx').on(table.instructorId)])
+
+export const classMembers = mysqlTable('class_members', {
+  classId: int('class_id').notNull().references(() => classes.id, { onDelete: 'cascade' }),
+  userId: int('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  joinedAt: createdAt(),
+}, table => [primaryKey({ columns: [table.classId, table.userId] }), index('class_members_user_idx').on(table.userId)])
+
+/** A student invitation to one class: the mailed token is kept as its SHA-256; single use, 14 days. */
+export const classInvitations = mysqlTable('class_invitations', {
+  id: int('id').autoincrement().primaryKey(),
+  classId: int('class_id').notNull().references(() => classes.id, { onDelete: 'cascade' }),
+  email: varchar('email', { length: 254 }).notNull(),
+  tokenHash: char('token_hash', { length: 64 }).notNull().unique('class_invitations_token_unique'),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+  usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
+  createdAt: createdAt(),
+})
+
+export const FEEDBACK_MODES = ['on-submit', 'after-due'] as const
+
+/**
+ * A fault hunt: a copy of one of the author's banks (what students see) and, kept apart,
+ * the hidden faults. `faults` never leaves the server for a student.
+ */
+export const hunts = mysqlTable('hunts', {
+  id: int('id').autoincrement().primaryKey(),
+  authorId: int('author_id').notNull().references(() => users.id, { onDelete: 'restrict' }),
+  title: varchar('title', { length: 120 }).notNull(),
+  instructions: text('instructions').notNull(),
+  document: jsonDocument<Record<string, unknown>>('document').notNull(),
+  faults: jsonDocument<Fault[]>('faults').notNull(),
+  secondaryPrewired: boolean('secondary_prewired').notNull().default(true),
+  dueAt: datetime('due_at', { mode: 'date', fsp: 3 }),
+  probeBudget: int('probe_budget'),
+  feedback: mysqlEnum('feedback', FEEDBACK_MODES).notNull().default('on-submit'),
+  publishedAt: datetime('published_at', { mode: 'date', fsp: 3 }),
+  deletedAt: datetime('deleted_at', { mode: 'date', fsp: 3 }),
+  version: int('version').notNull().default(1),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+}, table => [index('hunts_author_idx').on(table.authorId, table.deletedAt)])
+
+/** Which classes a hunt is published to. */
+export const huntClasses = mysqlTable('hunt_classes', {
+  huntId: int('hunt_id').notNull().references(() => hunts.id, { onDelete: 'cascade' }),
+  classId: int('class_id').notNull().references(() => classes.id, { onDelete: 'cascade' }),
+  publishedAt: createdAt(),
+}, table => [primaryKey({ columns: [table.huntId, table.classId] }), index('hunt_classes_class_idx').on(table.classId)])
+
+export const ATTEMPT_STATUSES = ['in-progress', 'submitted'] as const
+
+/** One student's go at a hunt: their wiring as last sent, the counters, the diagnosis. */
+export const attempts = mysqlTable('attempts', {
+  id: int('id').autoincrement().primaryKey(),
+  huntId: int('hunt_id').notNull().references(() => hunts.id, { onDelete: 'cascade' }),
+  studentId: int('student_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  status: mysqlEnum('status', ATTEMPT_STATUSES).notNull().default('in-progress'),
+  document: jsonDocument<Record<string, unknown>>('document').notNull(),
+  probesUsed: int('probes_used').notNull().default(0),
+  unsafeClosures: int('unsafe_closures').notNull().default(0),
+  liveRewires: int('live_rewires').notNull().default(0),
+  operations: int('operations').notNull().default(0),
+  // the wiring last energized (a hash), null while the bank is dead
+  liveWiring: char('live_wiring', { length: 64 }),
+  diagnosis: jsonDocument<{ component: string, diagnosis: string }[]>('diagnosis'),
+  correct: boolean('correct'),
+  startedAt: createdAt(),
+  lastActivityAt: datetime('last_activity_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  submittedAt: datetime('submitted_at', { mode: 'date', fsp: 3 }),
+}, table => [uniqueIndex('attempts_hunt_student_unique').on(table.huntId, table.studentId), index('attempts_student_idx').on(table.studentId)])
+
+/** Every probe an attempt took, in order (the instructor's view of how it was found). */
+export const attemptProbes = mysqlTable('attempt_probes', {
+  id: int('id').autoincrement().primaryKey(),
+  attemptId: int('attempt_id').notNull().references(() => attempts.id, { onDelete: 'cascade' }),
+  fromTerminal: varchar('from_terminal', { length: 70 }).notNull(),
+  toTerminal: varchar('to_terminal', { length: 70 }).notNull(),
+  volts: decimal('volts', { precision: 14, scale: 4, mode: 'number' }).notNull(),
+  degrees: decimal('degrees', { precision: 7, scale: 2, mode: 'number' }).notNull(),
+  energized: boolean('energized').notNull(),
+  takenAt: createdAt(),
+}, table => [index('attempt_probes_attempt_idx').on(table.attemptId)])
+
+/** rate-limiter-flexible's store for probes per attempt (same shape as sign_in_limits). */
+export const probeLimits = mysqlTable('probe_limits', {
+  key: varchar('key', { length: 255 }).primaryKey(),
+  points: int('points').notNull().default(0),
+  expire: bigint('expire', { mode: 'number', unsigned: true }),
+})
+
 export type User = typeof users.$inferSelect
 export type NewUser = typeof users.$inferInsert
 export type Bank = typeof banks.$inferSelect
 export type NewBank = typeof banks.$inferInsert
 export type Invitation = typeof invitations.$inferSelect
+export type Class = typeof classes.$inferSelect
+export type Hunt = typeof hunts.$inferSelect
+export type Attempt = typeof attempts.$inferSelect

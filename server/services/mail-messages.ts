@@ -40,3 +40,31 @@ export function instructorInvitationMail(to: string, name: string | null, invite
     html: html(paragraphs, { href: link, label: 'Accept the invitation' }),
   }
 }
+
+export function classInvitationMail(to: string, instructor: string, className: string, link: string, days: number): Mail {
+  const paragraphs = [
+    'Hello,',
+    `${instructor} has invited you to join the class "${className}" on Phaseloom, where you will find the fault hunts published to it.`,
+    `Open the link below and sign in (or make a student account with this e-mail address first). The link works once, for ${days} days.`,
+  ]
+  return {
+    to,
+    subject: `Join ${className} on Phaseloom`,
+    text: `${paragraphs.join('\n\n')}\n\nJoin the class: ${link}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: link, label: 'Join the class' }),
+  }
+}
+
+export function huntPublishedMail(to: string, name: string, instructor: string, title: string, className: string, dueAt: Date | null, link: string): Mail {
+  const paragraphs = [
+    `Hello ${name},`,
+    `${instructor} has published a fault hunt, "${title}", to ${className}.${dueAt ? ` It is due ${dueAt.toUTCString()}.` : ''}`,
+    'Find the fault with the meter, as on a real bench, and do not close a delta onto it. Readings come from Phaseloom; your instructor sees how many probes you took.',
+  ]
+  return {
+    to,
+    subject: `New fault hunt: ${title}`,
+    text: `${paragraphs.join('\n\n')}\n\nOpen the hunt: ${link}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: link, label: 'Open the hunt' }),
+  }
+}

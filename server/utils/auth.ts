@@ -1,10 +1,13 @@
 import type { H3Event } from 'h3'
 import { and, eq, isNull } from 'drizzle-orm'
 import type { Role, SessionUser } from '#shared/schemas/account'
-import type { Bank, User } from '../db/schema'
+import type { Bank, Class, User } from '../db/schema'
 
 /** Roles that keep banks of their own (admins look after people, not banks). */
 export const BANK_ROLES = ['student', 'instructor', 'practitioner'] as const satisfies readonly Role[]
+
+/** Roles that can belong to a class and take its fault hunts. */
+export const MEMBER_ROLES = ['student', 'instructor'] as const satisfies readonly Role[]
 
 export function sessionUserOf(user: Pick<User, 'id' | 'role' | 'name'>): SessionUser {
   return { id: user.id, role: user.role, name: user.name }
@@ -61,4 +64,15 @@ export async function requireBankOwner(owner: User, bankId: number, { deleted = 
 
 export function bankNotFound() {
   return createError({ statusCode: 404, statusMessage: 'No such bank' })
+}
+
+export function classNotFound() {
+  return createError({ statusCode: 404, statusMessage: 'No such class' })
+}
+
+/** The class `classId` if `instructor` teaches it, else 404. */
+export async function requireClassInstructor(instructor: User, classId: number): Promise<Class> {
+  const [row] = await useDB().select().from(tables.classes).where(and(eq(tables.classes.id, classId), eq(tables.classes.instructorId, instructor.id)))
+  if (!row) throw classNotFound()
+  return row
 }

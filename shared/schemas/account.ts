@@ -8,7 +8,7 @@ export const SELF_SERVICE_ROLES = ['student', 'practitioner'] as const
 
 export const PASSWORD_MIN = 10
 
-const email = z
+export const email = z
   .string({ error: 'e-mail is required' })
   .trim()
   .toLowerCase()
