@@ -21,6 +21,17 @@ export interface BenchSolve {
   solveError: string | null
 }
 
+/**
+ * A fault-hunt attempt on the Bench: the server holds the hidden faults, so the Bench shows
+ * no reading of its own; energized and device states come from the server's answers.
+ */
+export interface HuntState {
+  energized: boolean
+  devices: Record<string, { state: string; amps: number }>
+  /** submitted, or closed: nothing may change any more */
+  locked: boolean
+}
+
 const emptyDoc = (): Circuit => ({ format: CIRCUIT_FORMAT, version: CIRCUIT_VERSION, name: 'Untitled bank', components: [], wires: [], layout: {} })
 
 function solveSafely(doc: Circuit): BenchSolve {
@@ -73,13 +84,23 @@ export const useBenchStore = defineStore('bench', () => {
   /** a jumper that would close a live delta corner, waiting for confirmation */
   const cornerRequest = ref<{ a: string; b: string; volts: number; ok: boolean } | null>(null)
 
+  /** set while the Bench runs a fault-hunt attempt (see HuntState) */
+  const hunt = shallowRef<HuntState | null>(null)
+  /** in a hunt, while set, a tapped terminal becomes a meter lead instead of a jumper end */
+  const leadPicker = shallowRef<((terminal: string) => void) | null>(null)
+
   const bankId = ref<number | null>(null)
   const bankVersion = ref<number | null>(null)
   const dirty = ref(false)
 
-  const solved = computed<BenchSolve>(() => solveSafely(doc.value))
+  // in a hunt the Bench must not solve the bank as drawn: the real one has faults in it
+  const solved = computed<BenchSolve>(() => {
+    if (!hunt.value) return solveSafely(doc.value)
+    const parsed = parseCircuit(doc.value)
+    return { result: null, errors: parsed.ok ? [] : parsed.errors, solveError: null }
+  })
   const result = computed(() => solved.value.result)
-  const energized = computed(() => result.value?.energized ?? false)
+  const energized = computed(() => (hunt.value ? hunt.value.energized : (result.value?.energized ?? false)))
   const canUndo = computed(() => past.value.length > 0)
   const canRedo = computed(() => future.value.length > 0)
   const terminalSet = computed(() => new Set(doc.value.components.flatMap((c) => terminalsOf(c).map((t) => `${c.id}.${t}`))))
@@ -90,7 +111,11 @@ export const useBenchStore = defineStore('bench', () => {
    * breakers that tripped stay so in the document, and the events go to the log.
    */
   function commit(next: Circuit) {
-    const events = solveSafely(next).result?.events ?? []
+    if (hunt.value?.locked) {
+      notice.value = { tone: 'info', text: 'This attempt is submitted: the bank can no longer change.' }
+      return
+    }
+    const events = hunt.value ? [] : (solveSafely(next).result?.events ?? [])
     if (events.length) eventLog.value = events
     past.value = [...past.value, doc.value].slice(-HISTORY_LIMIT)
     future.value = []
@@ -98,7 +123,7 @@ export const useBenchStore = defineStore('bench', () => {
     dirty.value = true
   }
 
-  function load(next: Circuit, meta: { id?: number | null; version?: number | null } = {}) {
+  function load(next: Circuit, meta: { id?: number | null; version?: number | null; hunt?: HuntState } = {}) {
     const parsed = parseCircuit(next)
     doc.value = parsed.ok ? { layout: {}, ...parsed.circuit } : { ...emptyDoc(), ...next }
     past.value = []
@@ -110,6 +135,25 @@ export const useBenchStore = defineStore('bench', () => {
     bankId.value = meta.id ?? null
     bankVersion.value = meta.version ?? null
     dirty.value = false
+    hunt.value = meta.hunt ?? null
+    leadPicker.value = null
+  }
+
+  /** A hunt's parts are the instructor's: only jumpers, breaker handles and fuses are the student's. */
+  function partsFixed(): boolean {
+    if (!hunt.value) return false
+    notice.value = { tone: 'info', text: 'In a fault hunt the parts are fixed: make jumpers, work the breaker and probe with the meter.' }
+    return true
+  }
+
+  /** The server's answer in a hunt: what is energized, and the fuses and breakers that operated. */
+  function applyHuntOutcome(outcome: { energized: boolean; devices: HuntState['devices']; events: ProtectionEvent[] }) {
+    if (!hunt.value) return
+    hunt.value = { ...hunt.value, energized: outcome.energized, devices: outcome.devices }
+    if (outcome.events.length) {
+      eventLog.value = outcome.events
+      doc.value = settle(doc.value, outcome.events)
+    }
   }
 
   function undo() {
@@ -198,7 +242,11 @@ export const useBenchStore = defineStore('bench', () => {
   }
 
   /** Keyboard jumpers: the first call picks a terminal, the second makes the jumper. */
-  function pickTerminal(terminal: string): 'picked' | 'made' | 'cancelled' | 'refused' | 'asking' {
+  function pickTerminal(terminal: string): 'picked' | 'made' | 'cancelled' | 'refused' | 'asking' | 'lead' {
+    if (leadPicker.value) {
+      leadPicker.value(terminal)
+      return 'lead'
+    }
     const first = pendingTerminal.value
     if (!first) {
       pendingTerminal.value = terminal
@@ -210,12 +258,14 @@ export const useBenchStore = defineStore('bench', () => {
   }
 
   function addPart(kind: ComponentKind, fields: PartFields, id: string, position: { x: number; y: number }) {
+    if (partsFixed()) return
     const component = { ...fields, id, kind } as Component
     commit({ ...doc.value, components: [...doc.value.components, component], layout: { ...doc.value.layout, [id]: position } })
     selected.value = id
   }
 
   function removePart(id: string) {
+    if (partsFixed()) return
     if (!doc.value.components.some((c) => c.id === id)) return
     const layout = { ...doc.value.layout }
     delete layout[id]
@@ -227,6 +277,8 @@ export const useBenchStore = defineStore('bench', () => {
 
   /** Changes a part's fields (the inspector); wires to terminals the part no longer has are dropped. */
   function updatePart(id: string, patch: Partial<Component>) {
+    const fuseReplaced = Object.keys(patch).length === 1 && (patch as { blown?: boolean }).blown === false
+    if (!fuseReplaced && partsFixed()) return
     const components = doc.value.components.map((c) => (c.id === id ? ({ ...c, ...patch, id, kind: c.kind } as Component) : c))
     const changed = components.find((c) => c.id === id)
     if (!changed) return
@@ -284,6 +336,9 @@ export const useBenchStore = defineStore('bench', () => {
     clipboard,
     breakerRequest,
     cornerRequest,
+    hunt,
+    leadPicker,
+    applyHuntOutcome,
     bankId,
     bankVersion,
     dirty,

@@ -221,7 +221,7 @@ function visibleOutcome(settled: Settled, bench: Record<string, unknown>) {
   return {
     energized: settled.result.energized,
     devices,
-    events: settled.result.events.filter(e => ids.has(e.device)).map(e => ({ device: e.device, action: e.action, state: e.state, amps: e.amps, seconds: e.seconds })),
+    events: settled.result.events.filter(e => ids.has(e.device)).map(e => ({ device: e.device, action: e.action, state: e.state, region: e.region, amps: e.amps, seconds: e.seconds })),
   }
 }
 
