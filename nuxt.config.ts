@@ -33,6 +33,9 @@ export default defineNuxtConfig({
     // the mail catcher's directory; set only in development (npm start, npm test), it turns
     // on GET /api/admin/outbox, which is a 404 otherwise
     devOutboxDir: '',
+    // lab-sheet photos: the fs driver under `dir` (.data/uploads), or any S3-compatible store
+    // when `driver` is 's3' (NUXT_UPLOADS_DRIVER=s3, NUXT_UPLOADS_S3_BUCKET, ..._ENDPOINT, ...)
+    uploads: { driver: 'fs', dir: '.data/uploads', s3: { bucket: '', endpoint: '', region: 'auto', accessKeyId: '', secretAccessKey: '' } },
     public: {
       // the address links in e-mails and share links start with
       baseUrl: 'http://localhost:3000',

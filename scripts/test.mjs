@@ -70,6 +70,7 @@ try {
     NUXT_MAIL_PORT: String(mail.port),
     NUXT_DEV_OUTBOX_DIR: mail.dir,
     NUXT_PUBLIC_BASE_URL: `http://127.0.0.1:${serverPort}`,
+    NUXT_UPLOADS_DIR: join(scratch, 'uploads'),
   }
   server = await startServer({ port: serverPort, env: serverEnv, logFile: serverLog })
   console.log(`Serving ${server.baseURL} (log: test-results/server.log); mail catcher on 127.0.0.1:${mail.port}`)
@@ -82,6 +83,7 @@ try {
       PHASELOOM_DATABASE_URL: db.url,
       PHASELOOM_TEST_TMP: scratch,
       PHASELOOM_OUTBOX_DIR: mail.dir,
+      PHASELOOM_UPLOADS_DIR: join(scratch, 'uploads'),
       PHASELOOM_MAIL_PORT: String(mail.port),
       NUXT_SESSION_PASSWORD: sessionPassword,
     },

@@ -40,6 +40,7 @@ export interface AttemptView {
   liveRewires: number
   energized: boolean
   probes: (ProbeReading & { at: string })[]
+  submittedAt: string | null
   diagnosis: { component: string; diagnosis: Diagnosis }[] | null
   feedback: { correct: boolean; findings: { component: string; diagnosis: Diagnosis; right: boolean }[] } | null
 }
@@ -157,9 +158,10 @@ export const useAttemptStore = defineStore('attempt', () => {
             bench.notice = { tone: 'info', text: `Red lead on ${terminalLabel(terminal)}: tap where the black lead goes.` }
             return
           }
-          if (terminal === leads.value.from) return
-          leads.value = { ...leads.value, to: terminal }
-          void probe(leads.value.from, terminal)
+          const from = leads.value.from
+          if (terminal === from) return
+          leads.value = { from, to: terminal }
+          void probe(from, terminal)
         }
       : null
   }

@@ -185,6 +185,44 @@ export const probeLimits = mysqlTable('probe_limits', {
   expire: bigint('expire', { mode: 'number', unsigned: true }),
 })
 
+export const LAB_SHEET_STATUSES = ['draft', 'submitted', 'accepted', 'redo'] as const
+
+/**
+ * A lab sheet: a snapshot of a bank (the prediction is computed from it), what the student
+ * measured at each test point (by point id), the supply measured, notes, and the review.
+ */
+export const labSheets = mysqlTable('lab_sheets', {
+  id: int('id').autoincrement().primaryKey(),
+  ownerId: int('owner_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  title: varchar('title', { length: 120 }).notNull(),
+  document: jsonDocument<Record<string, unknown>>('document').notNull(),
+  measured: jsonDocument<Record<string, number | null>>('measured').notNull(),
+  supplyVolts: decimal('supply_volts', { precision: 10, scale: 2, mode: 'number' }),
+  rescale: boolean('rescale').notNull().default(false),
+  notes: text('notes').notNull(),
+  status: mysqlEnum('status', LAB_SHEET_STATUSES).notNull().default('draft'),
+  classId: int('class_id').references(() => classes.id, { onDelete: 'set null' }),
+  submittedAt: datetime('submitted_at', { mode: 'date', fsp: 3 }),
+  reviewComment: text('review_comment'),
+  reviewedAt: datetime('reviewed_at', { mode: 'date', fsp: 3 }),
+  version: int('version').notNull().default(1),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+}, table => [index('lab_sheets_owner_idx').on(table.ownerId), index('lab_sheets_class_idx').on(table.classId, table.status)])
+
+/** A photo of the bench or the meter: re-encoded, metadata stripped, kept in the uploads storage. */
+export const labSheetPhotos = mysqlTable('lab_sheet_photos', {
+  id: int('id').autoincrement().primaryKey(),
+  sheetId: int('sheet_id').notNull().references(() => labSheets.id, { onDelete: 'cascade' }),
+  storageKey: varchar('storage_key', { length: 120 }).notNull(),
+  thumbKey: varchar('thumb_key', { length: 120 }).notNull(),
+  width: int('width').notNull(),
+  height: int('height').notNull(),
+  bytes: int('bytes').notNull(),
+  caption: varchar('caption', { length: 200 }).notNull().default(''),
+  createdAt: createdAt(),
+}, table => [index('lab_sheet_photos_sheet_idx').on(table.sheetId)])
+
 export type User = typeof users.$inferSelect
 export type NewUser = typeof users.$inferInsert
 export type Bank = typeof banks.$inferSelect
@@ -193,3 +231,5 @@ export type Invitation = typeof invitations.$inferSelect
 export type Class = typeof classes.$inferSelect
 export type Hunt = typeof hunts.$inferSelect
 export type Attempt = typeof attempts.$inferSelect
+export type LabSheet = typeof labSheets.$inferSelect
+export type LabSheetPhoto = typeof labSheetPhotos.$inferSelect

@@ -364,13 +364,7 @@ export async function huntResults(author: User, huntId: number) {
 
 const CSV_COLUMNS = ['student', 'email', 'status', 'probesUsed', 'unsafeClosures', 'liveRewires', 'operations', 'timeSpentSeconds', 'correct', 'startedAt', 'submittedAt'] as const
 
-/** RFC 4180 text; a cell starting with = + - @ is prefixed with ' so spreadsheets do not run it. */
+/** The results table as CSV, one row per student. */
 export function resultsCsv(rows: Awaited<ReturnType<typeof huntResults>>['rows']): string {
-  const cell = (v: unknown) => {
-    let text = v === null || v === undefined ? '' : String(v)
-    if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`
-    return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text
-  }
-  return [CSV_COLUMNS.join(','), ...rows.map(r => CSV_COLUMNS.map(c => cell(r[c])).join(','))].join('\r\n') + '\r\n'
+  return csvText(CSV_COLUMNS, rows.map(r => CSV_COLUMNS.map(c => r[c])))
 }
-

@@ -68,3 +68,17 @@ export function huntPublishedMail(to: string, name: string, instructor: string, 
     html: html(paragraphs, { href: link, label: 'Open the hunt' }),
   }
 }
+
+export function labSheetReviewedMail(to: string, name: string, title: string, verdict: 'accepted' | 'redo', comment: string, link: string): Mail {
+  const paragraphs = [
+    `Hello ${name},`,
+    verdict === 'accepted' ? `Your lab sheet "${title}" was accepted.` : `Your lab sheet "${title}" was sent back to redo.`,
+    ...(comment ? [`Your instructor wrote: ${comment}`] : []),
+  ]
+  return {
+    to,
+    subject: verdict === 'accepted' ? `Lab sheet accepted: ${title}` : `Lab sheet to redo: ${title}`,
+    text: `${paragraphs.join('\n\n')}\n\nOpen the sheet: ${link}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: link, label: 'Open the sheet' }),
+  }
+}
