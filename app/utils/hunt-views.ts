@@ -1,7 +1,7 @@
 /** What the class and hunt routes answer, as the pages read it (server/services/classes, hunts, attempts). */
 import type { RosterRow } from '#shared/schemas/classes'
 import type { FeedbackMode } from '#shared/schemas/hunts'
-import type { Fault, FaultKind } from '#shared/hunts/faults'
+import { FAULT_LABELS, type Fault, type FaultKind } from '#shared/hunts/faults'
 
 export interface ClassHuntLink { id: number, title: string, dueAt: string | null }
 
@@ -109,6 +109,18 @@ export function faultFor(kind: FaultKind, targets: FaultTarget[], component?: st
 /** The first fault a new hunt offers: a unit with its secondary marked backwards. */
 export function firstFault(targets: FaultTarget[]): Fault {
   return faultFor(targets.some(t => t.kind === 'transformer') ? 'secondary-reversed' : 'phases-relabelled', targets)
+}
+
+/** One fault in words, for its author: "T2: Wrong tap (ratio off), +5 %". */
+export function faultText(fault: Fault): string {
+  const label = `${fault.component}: ${FAULT_LABELS[fault.kind]}`
+  switch (fault.kind) {
+    case 'open-coil': return `${label}, ${fault.coil.replace('-', '–')}`
+    case 'wrong-tap': return `${label}, ${fault.percent > 0 ? '+' : ''}${fault.percent} %`
+    case 'coil-volts': return `${label}, ${fault.volts.map(v => `${v} V`).join(' and ')}`
+    case 'phases-relabelled': return `${label}, ${fault.swap[0]} and ${fault.swap[1]} swapped`
+    default: return label
+  }
 }
 
 export const STATUS_LABELS: Record<AttemptStatus, string> = {

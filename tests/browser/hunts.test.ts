@@ -88,10 +88,12 @@ describe('a fault hunt from class to start', () => {
     await teacher.getByLabel('Title').fill(huntTitle)
     await teacher.getByLabel('Instructions for the students').fill('Take the closing check before you close the last corner.')
     await teacher.getByLabel('Probe budget').fill('25')
+    expect(await screenshot(teacher, 'hunt-new')).toMatch(/hunt-new\.png$/)
     await teacher.getByRole('button', { name: 'Save the hunt' }).click()
     await teacher.waitForURL(/\/hunts\/\d+$/)
     huntPath = new URL(teacher.url()).pathname
     await teacher.getByRole('heading', { level: 1, name: huntTitle }).waitFor()
+    expect(await teacher.getByTestId('hunt-faults').innerText()).toBe('T2: Secondary leads marked backwards')
 
     await teacher.getByRole('checkbox', { name: exactly(className) }).check()
     await teacher.getByRole('button', { name: 'Publish and mail the students' }).click()
@@ -121,6 +123,22 @@ describe('a fault hunt from class to start', () => {
     await student.getByRole('button', { name: 'Start the hunt' }).click()
     // the Bench page of an attempt is another piece of work: only the address is asserted
     await student.waitForURL(/\/attempts\/\d+$/)
+  })
+
+  it('shows the instructor the attempt in the results, with the chart described by the table', async () => {
+    await teacher.reload()
+    await teacher.getByRole('row', { name: /Ines Moreau/ }).getByText('In progress').waitFor()
+    const chart = teacher.getByTestId('results-chart').locator('canvas')
+    await chart.waitFor()
+    expect(await chart.getAttribute('role')).toBe('img')
+    expect(await chart.getAttribute('aria-label')).toContain('The same figures are in the results table')
+    const tableId = await chart.getAttribute('aria-describedby')
+    expect(await teacher.locator(`table[id="${tableId}"]`).count()).toBe(1)
+    const csv = await teacher.request.get(await teacher.getByRole('link', { name: 'Download CSV' }).getAttribute('href') ?? '')
+    expect(csv.headers()['content-type']).toContain('text/csv')
+    expect(await csv.text()).toContain(`Ines Moreau,${studentEmail},in-progress,0,`)
+    const path = await screenshot(teacher, 'hunt-results')
+    expect(statSync(path).size).toBeGreaterThan(10_000)
   })
 
   it('never asked the author\'s routes for the student, and no answer named the fault', async () => {
