@@ -73,6 +73,14 @@ describe('a fault hunt from class to start', () => {
   })
 
   it('lets the instructor write a hunt with a reversed unit and publish it to the class', async () => {
+    // the student who joined is on the roster, with no attempts yet
+    await teacher.reload()
+    const member = teacher.getByTestId('roster').getByRole('row', { name: /Ines Moreau/ })
+    await member.waitFor()
+    expect(await member.innerText()).toContain(studentEmail)
+    expect(await member.innerText()).toContain('None yet')
+    expect(await screenshot(teacher, 'class-teach')).toMatch(/class-teach\.png$/)
+
     const practice = starterBySlug('closing-check-practice')!.document
     const bank = await teacher.request.post('/api/banks', { data: { name: bankName, document: { ...practice, name: bankName } } })
     expect(bank.status()).toBe(201)
