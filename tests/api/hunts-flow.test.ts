@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { solve } from '../../shared/engine'
 import { starterBySlug } from '../../shared/starters'
 import { databaseURL } from './helpers'
-import { firstLink, mailTo, newPerson, type Person } from './people'
+import { as, firstLink, mailTo, newPerson, signIn, type Person } from './people'
 
 type Doc = { components: { id: string, kind: string, closed?: boolean, blown?: boolean }[], wires: [string, string][] } & Record<string, unknown>
 
@@ -242,5 +242,20 @@ describe('probe limits', () => {
     const dropped = await student.call(`/api/attempts/${attempt.id}/energize`, { method: 'POST', json: { document: fewer } })
     expect(dropped.status).toBe(400)
     expect(dropped.body.data.errors[0].message).toContain('T3 is missing')
+  })
+})
+
+describe('the demo scenario', () => {
+  it('has a class with both demo students and a hunt published to it', async () => {
+    for (const email of ['student@phaseloom.test', 'student2@phaseloom.test']) {
+      const cookie = await signIn(email, 'phaseloom-demo')
+      const call = as(cookie)
+      const classes = await call('/api/classes')
+      expect(classes.body.map((c: { name: string }) => c.name)).toContain('Transformer Lab A')
+      const hunts = await call('/api/hunts')
+      const demo = hunts.body.assigned.find((h: { title: string }) => h.title === 'Bay 4: one unit is not what it seems')
+      expect(demo, email).toBeDefined()
+      expect(JSON.stringify((await call(`/api/hunts/${demo.id}`)).body)).not.toMatch(/secondary-reversed|"faults"/)
+    }
   })
 })
