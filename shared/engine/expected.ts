@@ -91,7 +91,7 @@ const angleOf = (z: C) => (Math.atan2(z[1], z[0]) * 180) / Math.PI
  * The angle each pair of output terminals reads on a correct bank, or null where none
  * follows (dead, no output block on a and b, a single-phase or unnamed secondary).
  */
-function expectedAngles(circuit: Circuit, result: SolveResult, highLeg: string | null): ((pair: [string, string]) => { degrees: number } | Record<string, never>) | null {
+function expectedAngles(circuit: Circuit, result: SolveResult, highLeg: string | null): ((pair: [string, string]) => { degrees?: number }) | null {
   const supply = circuit.components.find((c) => c.kind === 'supply')
   const disp = result.bank.displacementDegrees
   const kind = result.bank.secondary
