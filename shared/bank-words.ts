@@ -39,6 +39,8 @@ function faultWords(p: BankProblem): string {
 function sideWords(kind: Connection, problems: BankProblem[], openCorner: boolean): string {
   const name = kind === 'delta' && openCorner ? 'delta with one corner open' : connectionName(kind)
   if (problems.length === 0) return name
+  // no connection the trade names, and nothing more particular to say about it
+  if (kind === 'other' && problems.every((p) => p.code === 'not-three-phase')) return `${name} — not a valid connection`
   const faults = problems.map(faultWords).join(', ')
   const joined = kind === 'other' ? `${name}: ${faults}` : `${name}${openCorner && kind === 'delta' ? ' and' : ' with'} ${faults}`
   return `${joined} — not a valid connection`
@@ -54,7 +56,7 @@ export function bankVerdict(result: SolveResult): BankVerdict {
   // no units yet: nothing to call right or wrong
   const noUnits = Object.keys(result.windings).length === 0
   const valid = noUnits || (problems.length === 0 && bank.primary !== 'other' && bank.secondary !== 'other')
-  const faulted = [on('primary').length ? `primary ${primary}` : null, on('secondary').length ? secondary : null].filter(Boolean)
+  const faulted = [on('primary').length ? `primary: ${primary}` : null, on('secondary').length ? secondary : null].filter(Boolean)
   const headline = valid ? null : faulted.length ? `Not a proper bank: ${faulted.join('; ')}. No clock number.` : 'Not a proper bank: no delta or wye. No clock number.'
   return { valid, primary, secondary, headline, details: problems.map((p) => p.message) }
 }

@@ -112,3 +112,11 @@ describe('BenchPhasor on a faulted bank', () => {
     expect(wrapper.text()).toContain('Dyn1')
   })
 })
+
+describe('BenchReadings: a primary that makes no delta or wye', () => {
+  it('says so in a few words', async () => {
+    const wrapper = await readings({ ...doc({ secondary: 'delta' }), wires: [...doc({ secondary: 'delta' }).wires, ['T1.H1', 'T1.H2']] })
+    expect(wrapper.get('[data-testid="bank-summary"]').text()).toMatch(/Primary\s*no delta or wye — not a valid connection/)
+    expect(wrapper.get('[data-testid="bank-not-valid"]').text()).toContain('Not a proper bank: primary: no delta or wye — not a valid connection. No clock number.')
+  })
+})
