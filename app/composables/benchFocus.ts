@@ -52,7 +52,8 @@ function tryRestore(mark: FocusMark): boolean {
 
 /**
  * After the change has rendered, puts the focus back on the marked control or the nearest
- * sensible one, if it was lost. `waitMs` keeps trying while a new page renders (a first save).
+ * sensible one, if it was lost. `waitMs` keeps watching that long while a new page replaces
+ * this one (a first save): the old page's control can take the focus and then go with it.
  */
 export async function restoreFocus(mark: FocusMark | null, { waitMs = 0 } = {}): Promise<void> {
   if (!mark || typeof document === 'undefined') return
@@ -60,6 +61,7 @@ export async function restoreFocus(mark: FocusMark | null, { waitMs = 0 } = {}):
   const until = performance.now() + waitMs
   for (;;) {
     await new Promise<void>((r) => requestAnimationFrame(() => r()))
-    if (tryRestore(mark) || performance.now() >= until) return
+    const done = tryRestore(mark)
+    if ((done && waitMs === 0) || performance.now() >= until) return
   }
 }
