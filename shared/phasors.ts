@@ -6,6 +6,7 @@
  */
 import type { Circuit } from './circuit/schema'
 import type { Reading, SolveResult } from './engine/types'
+import { bankVerdict } from './bank-words'
 
 export type PhaseLetter = 'A' | 'B' | 'C'
 
@@ -33,6 +34,8 @@ export interface PhasorView {
   clock: number | null
   /** IEC 60076-1 vector group such as "Dyn1", where both sides are a delta or a wye; else null */
   vectorGroup: string | null
+  /** for wiring that is no proper connection: what is wrong, in one line (then no clock, no vector group) */
+  notValid: string | null
 }
 
 const LINE_PAIRS = [['a', 'b'], ['b', 'c'], ['c', 'a']] as const
@@ -75,7 +78,7 @@ function wiredTerminals(doc: Circuit): Set<string> {
 const IEC_LETTER: Partial<Record<string, string>> = { delta: 'D', wye: 'Y' }
 
 export function phasorView(result: SolveResult | null, doc: Circuit): PhasorView {
-  const empty: PhasorView = { energized: false, primary: [], secondary: [], displacementDegrees: null, clock: null, vectorGroup: null }
+  const empty: PhasorView = { energized: false, primary: [], secondary: [], displacementDegrees: null, clock: null, vectorGroup: null, notValid: null }
   if (!result || !result.energized) return empty
   const at = (t: string) => result.terminals[t]
   const phasor = (name: string, from: string, to: string, phase: PhaseLetter, between: Phasor['between']): Phasor | null => {
@@ -122,6 +125,9 @@ export function phasorView(result: SolveResult | null, doc: Circuit): PhasorView
     }
   }
 
+  const verdict = bankVerdict(result)
+  // a faulted bank has a measured displacement at a–b but no vector group: say what is wrong instead
+  if (!verdict.valid) return { energized: true, primary, secondary, displacementDegrees: null, clock: null, vectorGroup: null, notValid: verdict.headline }
   const { primary: primaryKind, secondary: secondaryKind, clock, displacementDegrees } = result.bank
   const hv = IEC_LETTER[primaryKind]
   const lv = IEC_LETTER[secondaryKind]?.toLowerCase()
@@ -129,5 +135,5 @@ export function phasorView(result: SolveResult | null, doc: Circuit): PhasorView
   const n = lv === 'y' && neutralWired ? 'n' : ''
   const vectorGroup = hv && lv && clock !== null ? `${hv}${lv}${n}${clock}` : null
 
-  return { energized: true, primary, secondary, displacementDegrees, clock, vectorGroup }
+  return { energized: true, primary, secondary, displacementDegrees, clock, vectorGroup, notValid: null }
 }

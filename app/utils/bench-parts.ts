@@ -48,3 +48,18 @@ export const HAZARD_TITLES: Record<string, string> = {
   'winding-overvoltage': 'Winding over its voltage',
   overload: 'Overload',
 }
+
+/** parts whose tops are within this many pixels count as one row of the Tab order */
+export const ROW_SLACK = 40
+
+/** Parts in reading order: row by row from the top, each row from left to right. */
+export function readingOrder<T extends { position: { x: number; y: number } }>(parts: T[]): T[] {
+  const byTop = [...parts].sort((p, q) => p.position.y - q.position.y)
+  const rows: T[][] = []
+  for (const p of byTop) {
+    const row = rows.at(-1)
+    if (row && p.position.y - row[0]!.position.y < ROW_SLACK) row.push(p)
+    else rows.push([p])
+  }
+  return rows.flatMap((row) => row.sort((p, q) => p.position.x - q.position.x))
+}

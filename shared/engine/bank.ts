@@ -189,7 +189,7 @@ function nodeRoles(topo: Topology, node: number): { neutral: boolean; line: bool
   return { neutral, line }
 }
 
-function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: number) => number): Connection {
+export function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: number) => number): Connection {
   // a winding with both ends on one node is shorted out: no connection the trade names
   if (group.some((e) => merge(e.from) === merge(e.to))) return 'other'
   if (group.length === 1) return 'single-phase'

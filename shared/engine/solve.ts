@@ -4,6 +4,7 @@
  */
 import { parseCircuit, type CircuitError } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
+import { bankProblems } from './bank-check'
 import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
 import { buildTopology, solveStage, type StageSolution, type Topology } from './network'
@@ -189,6 +190,7 @@ function buildResult(
     displacementDegrees: null,
     clock: null,
   }
+  const problems = bankProblems(topo, graphs, merge, bank.primary, bank.secondary)
   const energized = isEnergized(topo, merge)
   const output = topo.circuit.components.find((c) => c.kind === 'output')
   const supply = topo.circuit.components.find((c) => c.kind === 'supply')
@@ -209,6 +211,7 @@ function buildResult(
     }
   }
 
+  if (problems.length) bank.problems = problems
   return {
     energized,
     meters,

@@ -58,12 +58,27 @@ export interface ClosingCheck {
   ok: boolean
 }
 
+/** Why the wiring is not a proper connection (our addition to the result's `bank`). */
+export interface BankProblem {
+  code: 'reversed-unit' | 'open-coil' | 'not-three-phase'
+  side: 'primary' | 'secondary'
+  /** the units at fault; for a reversed unit of a two-unit bank, either one */
+  units: string[]
+  message: string
+}
+
 export interface BankSummary {
   primary: Connection
   secondary: Connection
   coils: CoilMode
   displacementDegrees: number | null
   clock: number | null
+  /**
+   * present only when the wiring is not a proper connection (a reversed or open unit, units
+   * that make no three-phase set): `displacementDegrees` and `clock` are then measurements
+   * of a faulted bank, not its vector group
+   */
+  problems?: BankProblem[]
 }
 
 export interface SolveResult {
