@@ -1,6 +1,6 @@
 /**
  * The bank summary in words, read from a solve result: each side's connection, and when the
- * engine finds the wiring is no proper connection (`bank.problems`), a plain statement of
+ * engine finds the wiring is no proper connection (`bankProblems` in the result), a plain statement of
  * that instead of a clock number. Pure: no Vue.
  */
 import type { Connection } from './engine/bank'
@@ -48,7 +48,7 @@ function sideWords(kind: Connection, problems: BankProblem[], openCorner: boolea
 
 export function bankVerdict(result: SolveResult): BankVerdict {
   const { bank } = result
-  const problems = bank.problems ?? []
+  const problems = result.bankProblems ?? []
   const on = (side: BankProblem['side']) => problems.filter((p) => p.side === side)
   const openCorner = result.closingChecks.length > 0
   const primary = sideWords(bank.primary, on('primary'), false)

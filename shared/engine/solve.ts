@@ -211,7 +211,6 @@ function buildResult(
     }
   }
 
-  if (problems.length) bank.problems = problems
   return {
     energized,
     meters,
@@ -222,6 +221,7 @@ function buildResult(
     hazards: hazards.map((h) => ({ ...h, ...(h.volts !== undefined && { volts: round(h.volts, 2) }), ...(h.amps !== undefined && { amps: round(h.amps, 2) }) })),
     bank,
     closingChecks: closingChecks.map((c) => ({ ...c, volts: round(c.volts, 2) })),
+    bankProblems: problems,
   }
 }
 

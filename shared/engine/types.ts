@@ -73,12 +73,6 @@ export interface BankSummary {
   coils: CoilMode
   displacementDegrees: number | null
   clock: number | null
-  /**
-   * present only when the wiring is not a proper connection (a reversed or open unit, units
-   * that make no three-phase set): `displacementDegrees` and `clock` are then measurements
-   * of a faulted bank, not its vector group
-   */
-  problems?: BankProblem[]
 }
 
 export interface SolveResult {
@@ -91,4 +85,12 @@ export interface SolveResult {
   hazards: Hazard[]
   bank: BankSummary
   closingChecks: ClosingCheck[]
+  /**
+   * our addition to the result of circuit-format.md (like closingChecks; `bank` keeps exactly
+   * the spec's fields): empty for a proper connection; otherwise what makes the wiring no
+   * proper bank (a reversed or open unit, units that make no three-phase set), and then
+   * `bank.displacementDegrees` and `bank.clock` are measurements of a faulted bank, not its
+   * vector group
+   */
+  bankProblems: BankProblem[]
 }
