@@ -16,6 +16,8 @@ export default defineConfig({
           name: 'unit',
           environment: 'node',
           include: ['tests/unit/**/*.test.ts'],
+          // the property tests run hundreds of solves: room for a busy machine, not a speed check
+          testTimeout: 30_000,
         },
         resolve: { alias: { '#shared': shared } },
       },
@@ -23,6 +25,7 @@ export default defineConfig({
         test: {
           name: 'nuxt',
           include: ['tests/nuxt/**/*.test.ts'],
+          testTimeout: 30_000,
           environmentOptions: { nuxt: { domEnvironment: 'happy-dom' } },
         },
       }),
