@@ -35,11 +35,19 @@ function isRecord(v: unknown): v is Record<string, unknown> {
  * that these errors are reported together with any shape errors.
  */
 export function crossCheck(doc: unknown): CircuitError[] {
-  if (!isRecord(doc) || !Array.isArray(doc.components)) return []
-  const errors: CircuitError[] = []
-  const byId = new Map<string, { index: number; kind: string; terminals: string[] }>()
+  return crossCheckIndexed(doc).errors
+}
+
+/**
+ * crossCheck, also giving every terminal name its index in document order (the components'
+ * terminals in turn, as `terminalsOf` lists them): the solver's topology starts from it.
+ */
+function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: Map<string, number> } {
   /** every terminal name a wire may use, so a sound wire is one lookup per end */
-  const valid = new Set<string>()
+  const valid = new Map<string, number>()
+  if (!isRecord(doc) || !Array.isArray(doc.components)) return { errors: [], terminals: valid }
+  const errors: CircuitError[] = []
+  const byId = new Map<string, { index: number; kind: string; terminals: readonly string[] }>()
   doc.components.forEach((c, index) => {
     if (!isRecord(c) || typeof c.id !== 'string') return
     const seen = byId.get(c.id)
@@ -50,9 +58,9 @@ export function crossCheck(doc: unknown): CircuitError[] {
     const kind = typeof c.kind === 'string' ? c.kind : ''
     const terminals = terminalsOf(c as { kind: string })
     byId.set(c.id, { index, kind, terminals })
-    for (const t of terminals) valid.add(`${c.id}.${t}`)
+    for (const t of terminals) valid.set(`${c.id}.${t}`, valid.size)
   })
-  if (!Array.isArray(doc.wires)) return errors
+  if (!Array.isArray(doc.wires)) return { errors, terminals: valid }
   doc.wires.forEach((w, index) => {
     if (!Array.isArray(w) || w.length !== 2) return
     if (w[0] === w[1] && typeof w[0] === 'string') errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
@@ -74,7 +82,7 @@ export function crossCheck(doc: unknown): CircuitError[] {
       }
     }
   })
-  return errors
+  return { errors, terminals: valid }
 }
 
 function issueMessage(issue: z.core.$ZodIssue): string {
@@ -106,6 +114,15 @@ export function circuitErrorsFrom(error: z.ZodError): CircuitError[] {
  * defaults filled in, or every error found, each naming its path.
  */
 export function parseCircuit(input: unknown): ParseResult {
+  const r = parseCircuitIndexed(input)
+  return r.ok ? { ok: true, circuit: r.circuit } : r
+}
+
+/**
+ * parseCircuit, also returning the index of every terminal name (see crossCheckIndexed), valid
+ * for the returned document as long as it is not changed: for a solve that follows at once.
+ */
+export function parseCircuitIndexed(input: unknown): { ok: true; circuit: Circuit; terminals: Map<string, number> } | { ok: false; errors: CircuitError[] } {
   let doc = input
   if (typeof input === 'string') {
     try {
@@ -118,10 +135,11 @@ export function parseCircuit(input: unknown): ParseResult {
   const shape = CircuitShapeSchema.safeParse(doc)
   const errors = shape.success ? [] : circuitErrorsFrom(shape.error)
   const seen = new Set(errors.map((e) => `${e.path}\n${e.message}`))
-  for (const e of crossCheck(doc)) {
+  const cross = crossCheckIndexed(doc)
+  for (const e of cross.errors) {
     const key = `${e.path}\n${e.message}`
     if (!seen.has(key)) errors.push(e)
   }
   if (errors.length > 0 || !shape.success) return { ok: false, errors: errors.slice(0, MAX_ERRORS) }
-  return { ok: true, circuit: shape.data }
+  return { ok: true, circuit: shape.data, terminals: cross.terminals }
 }

@@ -142,30 +142,35 @@ export type Circuit = z.infer<typeof CircuitShapeSchema>
 export type CircuitInput = z.input<typeof CircuitShapeSchema>
 export type ComponentInput = z.input<typeof ComponentSchema>
 
-/** Terminal names of a component, in the order a drawing shows them. */
-export function terminalsOf(c: { kind: string; poles?: unknown; secondaryVolts?: unknown; connection?: unknown }): string[] {
+const SUPPLY_WYE = ['A', 'B', 'C', 'N'] as const
+const SUPPLY_DELTA = ['A', 'B', 'C'] as const
+const BREAKER_POLES = [[], ['L1', 'T1'], ['L1', 'L2', 'T1', 'T2'], ['L1', 'L2', 'L3', 'T1', 'T2', 'T3']] as const
+const ONE_COIL = ['H1', 'H2', 'X1', 'X2'] as const
+const TWO_COILS = ['H1', 'H2', 'X1', 'X2', 'X3', 'X4'] as const
+const TWO_ENDS = ['a', 'b'] as const
+const OUTPUT = ['a', 'b', 'c', 'n'] as const
+const GROUND = ['g'] as const
+const NONE = [] as const
+
+/** Terminal names of a component, in the order a drawing shows them (shared lists: do not modify). */
+export function terminalsOf(c: { kind: string; poles?: unknown; secondaryVolts?: unknown; connection?: unknown }): readonly string[] {
   switch (c.kind) {
     case 'supply':
-      return c.connection === 'wye' ? ['A', 'B', 'C', 'N'] : ['A', 'B', 'C']
-    case 'breaker': {
-      const poles = c.poles === 1 || c.poles === 2 || c.poles === 3 ? c.poles : 3
-      const line = Array.from({ length: poles }, (_, i) => `L${i + 1}`)
-      return [...line, ...line.map((_, i) => `T${i + 1}`)]
-    }
+      return c.connection === 'wye' ? SUPPLY_WYE : SUPPLY_DELTA
+    case 'breaker':
+      return BREAKER_POLES[c.poles === 1 || c.poles === 2 || c.poles === 3 ? c.poles : 3]
     case 'transformer':
-      return Array.isArray(c.secondaryVolts) && c.secondaryVolts.length === 1
-        ? ['H1', 'H2', 'X1', 'X2']
-        : ['H1', 'H2', 'X1', 'X2', 'X3', 'X4']
+      return Array.isArray(c.secondaryVolts) && c.secondaryVolts.length === 1 ? ONE_COIL : TWO_COILS
     case 'fuse':
     case 'load':
     case 'voltmeter':
-      return ['a', 'b']
+      return TWO_ENDS
     case 'output':
-      return ['a', 'b', 'c', 'n']
+      return OUTPUT
     case 'ground':
-      return ['g']
+      return GROUND
     default:
-      return []
+      return NONE
   }
 }
 

@@ -133,55 +133,70 @@ export function windingRatedAmps(t: Transformer): { primary: number; coils: numb
   }
 }
 
-export function buildTopology(circuit: Circuit): Topology {
+/**
+ * @param terminals every terminal name's index in document order, as parseCircuitIndexed
+ * gives it for this very document (worked out here when absent)
+ */
+export function buildTopology(circuit: Circuit, terminals?: Map<string, number>): Topology {
+  const comps = circuit.components
   const byId = new Map<string, Component>()
-  const names: string[] = []
-  const index = new Map<string, number>()
-  for (const c of circuit.components) {
+  /** index of each component's first terminal; its terminals follow in terminalsOf order */
+  const base: number[] = new Array<number>(comps.length)
+  let count = 0
+  for (let k = 0; k < comps.length; k++) {
+    const c = comps[k]!
     byId.set(c.id, c)
-    for (const t of terminalsOf(c)) {
-      index.set(`${c.id}.${t}`, names.length)
-      names.push(`${c.id}.${t}`)
-    }
+    base[k] = count
+    count += terminalsOf(c).length
   }
-  const GROUND = names.length
-  const uf = new UnionFind(names.length + 1)
+  let index = terminals
+  if (!index || index.size !== count) {
+    index = new Map<string, number>()
+    for (const c of comps) for (const t of terminalsOf(c)) index.set(`${c.id}.${t}`, index.size)
+  }
+  const GROUND = count
+  const uf = new UnionFind(count + 1)
   for (const [from, to] of circuit.wires) {
     const a = index.get(from)
     const b = index.get(to)
     if (a !== undefined && b !== undefined) uf.union(a, b)
   }
-  for (const c of circuit.components) {
-    if (c.kind === 'ground') uf.union(index.get(`${c.id}.g`)!, GROUND)
-    // circuit-format.md: a wye supply's N is bonded to ground
-    if (c.kind === 'supply' && c.connection === 'wye') uf.union(index.get(`${c.id}.N`)!, GROUND)
+  for (let k = 0; k < comps.length; k++) {
+    const c = comps[k]!
+    if (c.kind === 'ground') uf.union(base[k]!, GROUND)
+    // circuit-format.md: a wye supply's N is bonded to ground (N is its fourth terminal)
+    if (c.kind === 'supply' && c.connection === 'wye') uf.union(base[k]! + 3, GROUND)
   }
   const groundRoot = uf.find(GROUND)
-  const rootNode = new Map<number, number>()
+  /** node of each terminal by its index */
+  const nodeOf: number[] = new Array<number>(count)
+  const rootNode: number[] = new Array<number>(count + 1).fill(-1)
   const nodeLabels: string[][] = []
   const terminalNode = new Map<string, number>()
-  names.forEach((name, i) => {
+  let i = 0
+  for (const name of index.keys()) {
     const root = uf.find(i)
     let node = -1
     if (root !== groundRoot) {
-      node = rootNode.get(root) ?? -1
+      node = rootNode[root]!
       if (node < 0) {
         node = nodeLabels.length
-        rootNode.set(root, node)
-        nodeLabels.push([])
-      }
-      nodeLabels[node]!.push(name)
+        rootNode[root] = node
+        nodeLabels.push([name])
+      } else nodeLabels[node]!.push(name)
     }
     terminalNode.set(name, node)
-  })
-  const at = (id: string, t: string) => terminalNode.get(`${id}.${t}`)!
+    nodeOf[i++] = node
+  }
 
   const units: Unit[] = []
   const phases: SupplyPhase[] = []
   const poles: SwitchPole[] = []
   const loads: Topology['loads'] = []
   const meters: Topology['meters'] = []
-  for (const c of circuit.components) {
+  for (let k = 0; k < comps.length; k++) {
+    const c = comps[k]!
+    const b0 = base[k]!
     switch (c.kind) {
       case 'supply': {
         let star = -1
@@ -194,12 +209,13 @@ export function buildTopology(circuit: Circuit): Topology {
         const vPhase = c.lineVolts / Math.sqrt(3)
         // circuit-format.md: V(A−N) at 0°, V(B−N) at −120°, V(C−N) at +120° for ABC
         const angles = c.rotation === 'ABC' ? { A: 0, B: -120, C: 120 } : { A: 0, B: 120, C: -120 }
-        for (const phase of ['A', 'B', 'C'] as const) {
+        for (let q = 0; q < 3; q++) {
+          const phase = (['A', 'B', 'C'] as const)[q]!
           phases.push({
             supply: c.id,
             phase,
             star,
-            line: at(c.id, phase),
+            line: nodeOf[b0 + q]!,
             emf: Complex({ abs: vPhase, arg: (angles[phase] * Math.PI) / 180 }),
             z: new Complex(c.sourceOhms.r, c.sourceOhms.x),
           })
@@ -211,33 +227,36 @@ export function buildTopology(circuit: Circuit): Topology {
         const rated = windingRatedAmps(c)
         const gain = 1 + c.compensationPercent / 100
         const windings: Winding[] = []
-        const add = (name: string, dot: string, undot: string, turns: number, volts: number, amps: number, zw: Complex) => {
+        // terminals H1, H2, X1, X2 (, X3, X4) from b0 on: a winding's ends are consecutive
+        const add = (name: string, dot: string, undot: string, at: number, turns: number, volts: number, amps: number, zw: Complex) => {
           const y = zw.inverse()
-          windings.push({ name, dot, undot, a: at(c.id, dot), b: at(c.id, undot), turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
+          windings.push({ name, dot, undot, a: nodeOf[at]!, b: nodeOf[at + 1]!, turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
         }
-        add('H1-H2', 'H1', 'H2', c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
-        add('X1-X2', 'X1', 'X2', c.secondaryVolts[0]! * gain, c.secondaryVolts[0]!, rated.coils[0]!, z.coils[0]!)
+        add('H1-H2', 'H1', 'H2', b0, c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
+        add('X1-X2', 'X1', 'X2', b0 + 2, c.secondaryVolts[0]! * gain, c.secondaryVolts[0]!, rated.coils[0]!, z.coils[0]!)
         if (c.secondaryVolts.length === 2) {
-          add('X3-X4', 'X3', 'X4', c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
+          add('X3-X4', 'X3', 'X4', b0 + 4, c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
         }
         const node: Record<string, number> = {}
-        for (const t of terminalsOf(c)) node[t] = at(c.id, t)
+        const names = terminalsOf(c)
+        for (let j = 0; j < names.length; j++) node[names[j]!] = nodeOf[b0 + j]!
         units.push({ id: c.id, spec: c, windings, node })
         break
       }
       case 'breaker':
-        for (let p = 1; p <= c.poles; p++) poles.push({ device: c.id, a: at(c.id, `L${p}`), b: at(c.id, `T${p}`) })
+        // L1..Lp, then T1..Tp
+        for (let p = 0; p < c.poles; p++) poles.push({ device: c.id, a: nodeOf[b0 + p]!, b: nodeOf[b0 + c.poles + p]! })
         break
       case 'fuse':
-        poles.push({ device: c.id, a: at(c.id, 'a'), b: at(c.id, 'b') })
+        poles.push({ device: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
         break
       case 'load': {
         const z = typeof c.ohms === 'number' ? new Complex(c.ohms, 0) : new Complex(c.ohms.r, c.ohms.x)
-        loads.push({ id: c.id, a: at(c.id, 'a'), b: at(c.id, 'b'), y: z.inverse() })
+        loads.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]!, y: z.inverse() })
         break
       }
       case 'voltmeter':
-        meters.push({ id: c.id, a: at(c.id, 'a'), b: at(c.id, 'b') })
+        meters.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
         break
     }
   }

@@ -2,7 +2,7 @@
  * solve(document) → the settled result of circuit-format.md: solve, find the protective
  * device that operates first, open it, solve again, until nothing more operates.
  */
-import { parseCircuit, type CircuitError } from '../circuit/parse'
+import { parseCircuitIndexed, type CircuitError } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
 import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
@@ -52,9 +52,9 @@ export function solve(input: unknown): SolveResult {
 }
 
 export function solveDetailed(input: unknown): SolveDetail {
-  const parsed = parseCircuit(input)
+  const parsed = parseCircuitIndexed(input)
   if (!parsed.ok) throw new CircuitValidationError(parsed.errors)
-  return solveCircuit(parsed.circuit)
+  return solveCircuit(parsed.circuit, parsed.terminals)
 }
 
 function deviceAmps(topo: Topology, sol: StageSolution, open: ReadonlySet<string>): Map<string, number> {
@@ -77,8 +77,8 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
 }
 
 /** Solves an already-validated document (defaults filled in). */
-export function solveCircuit(circuit: Circuit): SolveDetail {
-  const topo = buildTopology(circuit)
+export function solveCircuit(circuit: Circuit, terminals?: Map<string, number>): SolveDetail {
+  const topo = buildTopology(circuit, terminals)
   const firstSupply = circuit.components.find((c) => c.kind === 'supply')
   const hz = firstSupply?.kind === 'supply' ? firstSupply.hz : 60
 
