@@ -77,6 +77,9 @@ export interface Topology {
   unitById: Map<string, Unit>
   /** node of each terminal "ID.T"; -1 is ground (the reference) */
   terminalNode: Map<string, number>
+  /** the same as two lists in document order: each terminal's name and its node */
+  terminalNames: string[]
+  terminalNodes: number[]
   /** circuit nodes plus the hidden star point of each delta supply */
   nodeCount: number
   nodeLabels: string[][]
@@ -85,6 +88,8 @@ export interface Topology {
   poles: SwitchPole[]
   loads: { id: string; a: number; b: number; y: Complex }[]
   meters: { id: string; a: number; b: number }[]
+  /** what bank.ts reads from the wiring alone, worked out there on first use */
+  bankCache?: unknown
 }
 
 class UnionFind {
@@ -173,8 +178,10 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
   const rootNode: number[] = new Array<number>(count + 1).fill(-1)
   const nodeLabels: string[][] = []
   const terminalNode = new Map<string, number>()
+  const terminalNames: string[] = new Array<string>(count)
   let i = 0
   for (const name of index.keys()) {
+    terminalNames[i] = name
     const root = uf.find(i)
     let node = -1
     if (root !== groundRoot) {
@@ -261,7 +268,7 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
     }
   }
   const unitById = new Map(units.map((u) => [u.id, u]))
-  const topo: Topology = { circuit, byId, unitById, terminalNode, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters }
+  const topo: Topology = { circuit, byId, unitById, terminalNode, terminalNames, terminalNodes: nodeOf, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters, bankCache: undefined }
   checkSourceLoops(topo)
   return topo
 }
@@ -335,16 +342,21 @@ export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolu
   }
   const vRe = x.re
   const vIm = x.im
-  const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [vRe[node]!, vIm[node]!])
 
-  const units = topo.units.map((u) => unitSolution(u, V))
+  const units: UnitSolution[] = new Array<UnitSolution>(topo.units.length)
+  for (let k = 0; k < units.length; k++) units[k] = unitSolution(topo.units[k]!, vRe, vIm)
   const phaseCurrent = topo.phases.map((_, k) => ({ re: x.re[n + k]!, im: x.im[n + k]! }))
-  const poleCurrent = topo.poles.map((p) => {
-    if (open.has(p.device)) return { re: 0, im: 0 }
-    const [ar, ai] = V(p.a)
-    const [br, bi] = V(p.b)
-    return { re: (ar - br) * gClosed, im: (ai - bi) * gClosed }
-  })
+  const poleCurrent: { re: number; im: number }[] = new Array(topo.poles.length)
+  for (let k = 0; k < poleCurrent.length; k++) {
+    const p = topo.poles[k]!
+    if (open.has(p.device)) {
+      poleCurrent[k] = { re: 0, im: 0 }
+      continue
+    }
+    const dr = (p.a < 0 ? 0 : vRe[p.a]!) - (p.b < 0 ? 0 : vRe[p.b]!)
+    const di = (p.a < 0 ? 0 : vIm[p.a]!) - (p.b < 0 ? 0 : vIm[p.b]!)
+    poleCurrent[k] = { re: dr * gClosed, im: di * gClosed }
+  }
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(vRe[i]!) || !Number.isFinite(vIm[i]!)) throw singularError(topo, i)
   }
@@ -390,32 +402,36 @@ function stampUnit(sys: ComplexSymmetricSystem, u: Unit) {
   }
 }
 
-function unitSolution(u: Unit, V: (node: number) => [number, number]): UnitSolution {
+function unitSolution(u: Unit, vRe: readonly number[], vIm: readonly number[]): UnitSolution {
   let numRe = 0
   let numIm = 0
   let sRe = 0
   let sIm = 0
-  const drop = u.windings.map((w) => {
-    const [ar, ai] = V(w.a)
-    const [br, bi] = V(w.b)
-    return [ar - br, ai - bi] as const
-  })
-  u.windings.forEach((w, k) => {
-    const [dr, di] = drop[k]!
+  const ws = u.windings
+  const m = ws.length
+  const dropRe: number[] = new Array<number>(m)
+  const dropIm: number[] = new Array<number>(m)
+  for (let k = 0; k < m; k++) {
+    const w = ws[k]!
+    const dr = (w.a < 0 ? 0 : vRe[w.a]!) - (w.b < 0 ? 0 : vRe[w.b]!)
+    const di = (w.a < 0 ? 0 : vIm[w.a]!) - (w.b < 0 ? 0 : vIm[w.b]!)
+    dropRe[k] = dr
+    dropIm[k] = di
     numRe += w.turns * (w.yRe * dr - w.yIm * di)
     numIm += w.turns * (w.yRe * di + w.yIm * dr)
     sRe += w.turns * w.turns * w.yRe
     sIm += w.turns * w.turns * w.yIm
-  })
+  }
   const sm = sRe * sRe + sIm * sIm
   const eRe = (numRe * sRe + numIm * sIm) / sm
   const eIm = (numIm * sRe - numRe * sIm) / sm
-  const current = u.windings.map((w, k) => {
-    const [dr, di] = drop[k]!
-    const ur = dr - w.turns * eRe
-    const ui = di - w.turns * eIm
-    return { re: w.yRe * ur - w.yIm * ui, im: w.yRe * ui + w.yIm * ur }
-  })
+  const current: { re: number; im: number }[] = new Array(m)
+  for (let k = 0; k < m; k++) {
+    const w = ws[k]!
+    const ur = dropRe[k]! - w.turns * eRe
+    const ui = dropIm[k]! - w.turns * eIm
+    current[k] = { re: w.yRe * ur - w.yIm * ui, im: w.yRe * ui + w.yIm * ur }
+  }
   return { id: u.id, eRe, eIm, current }
 }
 

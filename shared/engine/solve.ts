@@ -59,12 +59,15 @@ export function solveDetailed(input: unknown): SolveDetail {
 
 function deviceAmps(topo: Topology, sol: StageSolution, open: ReadonlySet<string>): Map<string, number> {
   const amps = new Map<string, number>()
-  topo.poles.forEach((p, k) => {
-    if (open.has(p.device)) return
+  const poles = topo.poles
+  for (let k = 0; k < poles.length; k++) {
+    const p = poles[k]!
+    if (open.has(p.device)) continue
     const c = sol.poleCurrent[k]!
     const i = Math.sqrt(c.re * c.re + c.im * c.im)
-    amps.set(p.device, Math.max(amps.get(p.device) ?? 0, i))
-  })
+    const was = amps.get(p.device)
+    amps.set(p.device, was === undefined ? Math.max(0, i) : Math.max(was, i))
+  }
   return amps
 }
 
@@ -103,10 +106,11 @@ export function solveCircuit(circuit: Circuit, terminals?: Map<string, number>):
   let sol: StageSolution
   let checks: ClosingCheck[] = []
   let stage: ReturnType<typeof stageHazards>
+  let amps: Map<string, number>
   for (;;) {
     sol = solveStage(topo, open)
     initial ??= sol
-    const amps = deviceAmps(topo, sol, open)
+    amps = deviceAmps(topo, sol, open)
     stage = stageHazards(topo, sol, open, amps, hz)
     if (sol === initial) checks = stage.checks
     for (const h of stage.hazards) {
@@ -140,14 +144,16 @@ export function solveCircuit(circuit: Circuit, terminals?: Map<string, number>):
     open.add(next.id)
   }
 
-  const result = buildResult(topo, sol, open, devices, events, hazards, checks, stage.merge, stage.graphs)
+  // the last stage is the settled state: nothing opened after it was solved
+  const result = buildResult(topo, sol, amps, devices, events, hazards, checks, stage.merge, stage.graphs)
   return { topo, initial: initial!, final: sol, open, result }
 }
 
 function buildResult(
   topo: Topology,
   sol: StageSolution,
-  open: Set<string>,
+  /** largest pole current of each conducting fuse and breaker in this state */
+  amps: Map<string, number>,
   devices: Record<string, DeviceReading>,
   events: ProtectionEvent[],
   hazards: Hazard[],
@@ -160,26 +166,39 @@ function buildResult(
 
   const terminals: Record<string, Reading> = {}
   const { vRe, vIm } = sol
-  for (const [name, node] of topo.terminalNode) terminals[name] = node < 0 ? { volts: 0, degrees: 0 } : reading(vRe[node]!, vIm[node]!)
-  const meters: Record<string, Reading> = {}
-  for (const m of topo.meters) {
-    const [ar, ai] = V(m.a)
-    const [br, bi] = V(m.b)
-    meters[m.id] = reading(ar - br, ai - bi)
+  const names = topo.terminalNames
+  const nodes = topo.terminalNodes
+  for (let k = 0; k < names.length; k++) {
+    const node = nodes[k]!
+    terminals[names[k]!] = node < 0 ? { volts: 0, degrees: 0 } : reading(vRe[node]!, vIm[node]!)
   }
+  const re = (node: number) => (node < 0 ? 0 : vRe[node]!)
+  const im = (node: number) => (node < 0 ? 0 : vIm[node]!)
+  const meters: Record<string, Reading> = {}
+  for (const m of topo.meters) meters[m.id] = reading(re(m.a) - re(m.b), im(m.a) - im(m.b))
   const windings: SolveResult['windings'] = {}
-  topo.units.forEach((u, ui) => {
-    u.windings.forEach((w, k) => {
-      const [ar, ai] = V(w.a)
-      const [br, bi] = V(w.b)
-      const i = sol.units[ui]!.current[k]!
-      const r = reading(ar - br, ai - bi)
-      windings[`${u.id}.${w.name}`] = { volts: r.volts, degrees: r.degrees, amps: round(Math.sqrt(i.re * i.re + i.im * i.im), 4) }
-    })
-  })
-  for (const [id, amps] of deviceAmps(topo, sol, open)) {
+  for (let ui = 0; ui < topo.units.length; ui++) {
+    const u = topo.units[ui]!
+    const current = sol.units[ui]!.current
+    for (let k = 0; k < u.windings.length; k++) {
+      const w = u.windings[k]!
+      const i = current[k]!
+      const dr = re(w.a) - re(w.b)
+      const di = im(w.a) - im(w.b)
+      const volts = Math.sqrt(dr * dr + di * di)
+      const amps = round(Math.sqrt(i.re * i.re + i.im * i.im), 4)
+      let wr: SolveResult['windings'][string]
+      if (volts < 1e-6) wr = { volts: 0, degrees: 0, amps }
+      else {
+        const deg = round(degreesOf(dr, di), 2)
+        wr = { volts: round(volts, 4), degrees: deg === -180 ? 180 : deg, amps }
+      }
+      windings[`${u.id}.${w.name}`] = wr
+    }
+  }
+  for (const [id, i] of amps) {
     const d = devices[id]!
-    if (d.state === 'closed' || d.state === 'intact') d.amps = round(amps, 4)
+    if (d.state === 'closed' || d.state === 'intact') d.amps = round(i, 4)
   }
 
   const bank: BankSummary = {
