@@ -47,22 +47,25 @@ function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: M
   const valid = new Map<string, number>()
   if (!isRecord(doc) || !Array.isArray(doc.components)) return { errors: [], terminals: valid }
   const errors: CircuitError[] = []
-  const byId = new Map<string, { index: number; kind: string; terminals: readonly string[] }>()
-  doc.components.forEach((c, index) => {
-    if (!isRecord(c) || typeof c.id !== 'string') return
+  const components: unknown[] = doc.components
+  /** the index of the component with each id */
+  const byId = new Map<string, number>()
+  for (let index = 0; index < components.length; index++) {
+    const c = components[index]
+    if (!isRecord(c) || typeof c.id !== 'string') continue
     const seen = byId.get(c.id)
-    if (seen) {
-      errors.push({ path: `components[${index}].id`, message: `duplicate id "${c.id}": components[${seen.index}] already uses it` })
-      return
+    if (seen !== undefined) {
+      errors.push({ path: `components[${index}].id`, message: `duplicate id "${c.id}": components[${seen}] already uses it` })
+      continue
     }
-    const kind = typeof c.kind === 'string' ? c.kind : ''
-    const terminals = terminalsOf(c as { kind: string })
-    byId.set(c.id, { index, kind, terminals })
-    for (const t of terminals) valid.set(`${c.id}.${t}`, valid.size)
-  })
+    byId.set(c.id, index)
+    for (const t of terminalsOf(c as { kind: string })) valid.set(`${c.id}.${t}`, valid.size)
+  }
   if (!Array.isArray(doc.wires)) return { errors, terminals: valid }
-  doc.wires.forEach((w, index) => {
-    if (!Array.isArray(w) || w.length !== 2) return
+  const wires: unknown[] = doc.wires
+  for (let index = 0; index < wires.length; index++) {
+    const w = wires[index]
+    if (!Array.isArray(w) || w.length !== 2) continue
     if (w[0] === w[1] && typeof w[0] === 'string') errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
     for (let side = 0; side < 2; side++) {
       const end: unknown = w[side]
@@ -74,14 +77,18 @@ function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: M
         continue
       }
       const [cid] = parts
-      const comp = byId.get(cid)
-      if (!comp) {
+      const at = byId.get(cid)
+      if (at === undefined) {
         errors.push({ path, message: `unknown terminal "${end}": there is no component "${cid}"` })
-      } else if ((COMPONENT_KINDS as readonly string[]).includes(comp.kind)) {
-        errors.push({ path, message: `unknown terminal "${end}": a ${comp.kind} "${cid}" has ${comp.terminals.join(', ')}` })
+        continue
+      }
+      const comp = components[at] as Record<string, unknown>
+      const kind = typeof comp.kind === 'string' ? comp.kind : ''
+      if ((COMPONENT_KINDS as readonly string[]).includes(kind)) {
+        errors.push({ path, message: `unknown terminal "${end}": a ${kind} "${cid}" has ${terminalsOf(comp as { kind: string }).join(', ')}` })
       }
     }
-  })
+  }
   return { errors, terminals: valid }
 }
 

@@ -42,26 +42,26 @@ export const SupplySchema = z.object({
   kind: z.literal('supply'),
   connection: z.enum(['wye', 'delta'], { error: 'connection must be "wye" or "delta"' }),
   lineVolts: positive('lineVolts', 1_000_000, ' V'),
-  hz: positive('hz', 1000, ' Hz').default(60),
-  rotation: z.enum(['ABC', 'ACB'], { error: 'rotation must be "ABC" or "ACB"' }).default('ABC'),
+  hz: positive('hz', 1000, ' Hz').default(() => 60),
+  rotation: z.enum(['ABC', 'ACB'], { error: 'rotation must be "ABC" or "ACB"' }).default(() => 'ABC' as const),
   sourceOhms: z
     .object({ r: bounded('sourceOhms.r', 0, 1e6), x: bounded('sourceOhms.x', 0, 1e6) })
-    .default({ r: 0.02, x: 0.05 }),
+    .default(() => ({ r: 0.02, x: 0.05 })),
 })
 
 export const BreakerSchema = z.object({
   id,
   kind: z.literal('breaker'),
-  poles: z.union([z.literal(1), z.literal(2), z.literal(3)], { error: 'poles must be 1, 2 or 3' }).default(3),
+  poles: z.literal([1, 2, 3], { error: 'poles must be 1, 2 or 3' }).default(() => 3 as const),
   amps: positive('amps', 100_000, ' A'),
-  closed: z.boolean({ error: 'closed must be true or false' }).default(false),
+  closed: z.boolean({ error: 'closed must be true or false' }).default(() => false),
 })
 
 export const FuseSchema = z.object({
   id,
   kind: z.literal('fuse'),
   amps: positive('amps', 100_000, ' A'),
-  blown: z.boolean({ error: 'blown must be true or false' }).default(false),
+  blown: z.boolean({ error: 'blown must be true or false' }).default(() => false),
 })
 
 export const TransformerSchema = z.object({
@@ -73,9 +73,9 @@ export const TransformerSchema = z.object({
     .array(positive('secondaryVolts', 1_000_000, ' V'), { error: 'secondaryVolts must be a list of one or two coil voltages' })
     .min(1, { error: 'secondaryVolts needs one or two coil voltages' })
     .max(2, { error: 'secondaryVolts holds at most two coil voltages' }),
-  impedancePercent: bounded('impedancePercent', 0.01, 50).default(3),
-  xOverR: bounded('xOverR', 0, 100).default(1.5),
-  compensationPercent: bounded('compensationPercent', -20, 20).default(0),
+  impedancePercent: bounded('impedancePercent', 0.01, 50).default(() => 3),
+  xOverR: bounded('xOverR', 0, 100).default(() => 1.5),
+  compensationPercent: bounded('compensationPercent', -20, 20).default(() => 0),
 })
 
 /** Below this a load is a short: draw a jumper instead (it keeps the equations well conditioned). */

@@ -11,7 +11,7 @@
  *   region (it would open in seconds to minutes).
  */
 import type { BankEdge, DeltaLoop, SideGraph } from './bank'
-import type { StageSolution, Topology, Unit } from './network'
+import { nodeOfTerminal, type StageSolution, type Topology, type Unit } from './network'
 import { operatingTime, type DeviceKind } from './protection'
 import type { ClosingCheck, Hazard } from './types'
 
@@ -41,7 +41,7 @@ export interface HazardContext {
 }
 
 function voltage(ctx: HazardContext, terminal: string): C {
-  const node = ctx.topo.terminalNode.get(terminal)!
+  const node = nodeOfTerminal(ctx.topo, terminal)!
   return node < 0 ? [0, 0] : [ctx.sol.vRe[node]!, ctx.sol.vIm[node]!]
 }
 

@@ -75,8 +75,10 @@ export interface Topology {
   circuit: Circuit
   byId: Map<string, Component>
   unitById: Map<string, Unit>
-  /** node of each terminal "ID.T"; -1 is ground (the reference) */
-  terminalNode: Map<string, number>
+  /** node of each terminal "ID.T"; -1 is ground (the reference); built on first use (see nodeOfTerminal) */
+  readonly terminalNode: Map<string, number>
+  /** index of each terminal name, in document order */
+  terminalIndex: Map<string, number>
   /** the same as two lists in document order: each terminal's name and its node */
   terminalNames: string[]
   terminalNodes: number[]
@@ -177,7 +179,6 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
   const nodeOf: number[] = new Array<number>(count)
   const rootNode: number[] = new Array<number>(count + 1).fill(-1)
   const nodeLabels: string[][] = []
-  const terminalNode = new Map<string, number>()
   const terminalNames: string[] = new Array<string>(count)
   let i = 0
   for (const name of index.keys()) {
@@ -192,7 +193,6 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
         nodeLabels.push([name])
       } else nodeLabels[node]!.push(name)
     }
-    terminalNode.set(name, node)
     nodeOf[i++] = node
   }
 
@@ -268,9 +268,38 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
     }
   }
   const unitById = new Map(units.map((u) => [u.id, u]))
-  const topo: Topology = { circuit, byId, unitById, terminalNode, terminalNames, terminalNodes: nodeOf, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters, bankCache: undefined }
+  let terminalNode: Map<string, number> | undefined
+  const topo: Topology = {
+    get terminalNode() {
+      if (!terminalNode) {
+        terminalNode = new Map<string, number>()
+        for (let k = 0; k < terminalNames.length; k++) terminalNode.set(terminalNames[k]!, nodeOf[k]!)
+      }
+      return terminalNode
+    },
+    terminalIndex: index,
+    terminalNames,
+    terminalNodes: nodeOf,
+    circuit,
+    byId,
+    unitById,
+    nodeCount: nodeLabels.length,
+    nodeLabels,
+    units,
+    phases,
+    poles,
+    loads,
+    meters,
+    bankCache: undefined,
+  }
   checkSourceLoops(topo)
   return topo
+}
+
+/** The node of a terminal "ID.T" (-1: ground), or undefined when there is no such terminal. */
+export function nodeOfTerminal(topo: Topology, terminal: string): number | undefined {
+  const k = topo.terminalIndex.get(terminal)
+  return k === undefined ? undefined : topo.terminalNodes[k]
 }
 
 /** Ideal (zero-impedance) supply phases that close a loop have no solution: say which. */

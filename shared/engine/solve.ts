@@ -6,7 +6,7 @@ import { parseCircuitIndexed, type CircuitError } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
 import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
-import { buildTopology, solveStage, type StageSolution, type Topology } from './network'
+import { buildTopology, nodeOfTerminal, solveStage, type StageSolution, type Topology } from './network'
 import { operatingTime, type DeviceKind } from './protection'
 import type { BankSummary, ClosingCheck, DeviceReading, Hazard, ProtectionEvent, Reading, SolveResult } from './types'
 
@@ -162,7 +162,7 @@ function buildResult(
   graphs: ReturnType<typeof sideGraphs>,
 ): SolveResult {
   const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [sol.vRe[node]!, sol.vIm[node]!])
-  const vt = (terminal: string) => V(topo.terminalNode.get(terminal)!)
+  const vt = (terminal: string) => V(nodeOfTerminal(topo, terminal)!)
 
   const terminals: Record<string, Reading> = {}
   const { vRe, vIm } = sol
@@ -215,7 +215,7 @@ function buildResult(
     const [or, oi] = vt(`${output.id}.a`).map((x, i) => x - vt(`${output.id}.b`)[i]!) as [number, number]
     const [sr, si] = vt(`${supply.id}.A`).map((x, i) => x - vt(`${supply.id}.B`)[i]!) as [number, number]
     const wired = [`${output.id}.a`, `${output.id}.b`].every((t) => {
-      const node = topo.terminalNode.get(t)!
+      const node = nodeOfTerminal(topo, t)!
       return node < 0 || topo.nodeLabels[node]!.length > 1
     })
     if (wired && Math.hypot(or, oi) > 1e-3 * Math.hypot(sr, si) && Math.hypot(sr, si) > 0) {
@@ -248,5 +248,5 @@ function isEnergized(topo: Topology, merge: (n: number) => number): boolean {
   const reached = (node: number) => live.has(merge(node))
   if (topo.units.some((u) => u.windings.some((w) => reached(w.a) || reached(w.b)))) return true
   if (topo.loads.some((l) => reached(l.a) || reached(l.b))) return true
-  return topo.circuit.components.some((c) => c.kind === 'output' && ['a', 'b', 'c', 'n'].some((t) => reached(topo.terminalNode.get(`${c.id}.${t}`)!)))
+  return topo.circuit.components.some((c) => c.kind === 'output' && ['a', 'b', 'c', 'n'].some((t) => reached(nodeOfTerminal(topo, `${c.id}.${t}`)!)))
 }
