@@ -11,6 +11,16 @@ export interface CircuitError {
   message: string
 }
 
+/** The terminals of a document, as the wiring check found them. */
+export interface TerminalIndex {
+  /** the index of each terminal name: the components' terminals in turn, as terminalsOf lists them */
+  index: Map<string, number>
+  /** the name of each terminal by its index */
+  names: string[]
+  /** the terminal index of each wire's ends (wire w at 2w and 2w + 1), -1 for an unknown one */
+  wireEnds: number[]
+}
+
 export type ParseResult = { ok: true; circuit: Circuit } | { ok: false; errors: CircuitError[] }
 
 const MAX_ERRORS = 50
@@ -42,10 +52,13 @@ export function crossCheck(doc: unknown): CircuitError[] {
  * crossCheck, also giving every terminal name its index in document order (the components'
  * terminals in turn, as `terminalsOf` lists them): the solver's topology starts from it.
  */
-function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: Map<string, number> } {
+function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: TerminalIndex } {
   /** every terminal name a wire may use, so a sound wire is one lookup per end */
   const valid = new Map<string, number>()
-  if (!isRecord(doc) || !Array.isArray(doc.components)) return { errors: [], terminals: valid }
+  const names: string[] = []
+  const wireEnds: number[] = []
+  const terminals: TerminalIndex = { index: valid, names, wireEnds }
+  if (!isRecord(doc) || !Array.isArray(doc.components)) return { errors: [], terminals }
   const errors: CircuitError[] = []
   const components: unknown[] = doc.components
   /** the index of the component with each id */
@@ -59,17 +72,32 @@ function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: M
       continue
     }
     byId.set(c.id, index)
-    for (const t of terminalsOf(c as { kind: string })) valid.set(`${c.id}.${t}`, valid.size)
+    for (const t of terminalsOf(c as { kind: string })) {
+      const name = `${c.id}.${t}`
+      valid.set(name, names.length)
+      names.push(name)
+    }
   }
-  if (!Array.isArray(doc.wires)) return { errors, terminals: valid }
+  if (!Array.isArray(doc.wires)) return { errors, terminals }
   const wires: unknown[] = doc.wires
   for (let index = 0; index < wires.length; index++) {
     const w = wires[index]
-    if (!Array.isArray(w) || w.length !== 2) continue
+    if (!Array.isArray(w) || w.length !== 2) {
+      wireEnds.push(-1, -1)
+      continue
+    }
     if (w[0] === w[1] && typeof w[0] === 'string') errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
     for (let side = 0; side < 2; side++) {
       const end: unknown = w[side]
-      if (typeof end !== 'string' || valid.has(end)) continue
+      const at = typeof end === 'string' ? valid.get(end) : undefined
+      wireEnds.push(at ?? -1)
+      if (at !== undefined) {
+        // the name as the document spells it: the same text, and the string JSON.parse made
+        // is one V8 has already interned, so the result's key costs less
+        names[at] = end as string
+        continue
+      }
+      if (typeof end !== 'string') continue
       const path = `wires[${index}][${side}]`
       const parts = splitTerminal(end)
       if (!parts) {
@@ -77,19 +105,19 @@ function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: M
         continue
       }
       const [cid] = parts
-      const at = byId.get(cid)
-      if (at === undefined) {
+      const byIdAt = byId.get(cid)
+      if (byIdAt === undefined) {
         errors.push({ path, message: `unknown terminal "${end}": there is no component "${cid}"` })
         continue
       }
-      const comp = components[at] as Record<string, unknown>
+      const comp = components[byIdAt] as Record<string, unknown>
       const kind = typeof comp.kind === 'string' ? comp.kind : ''
       if ((COMPONENT_KINDS as readonly string[]).includes(kind)) {
         errors.push({ path, message: `unknown terminal "${end}": a ${kind} "${cid}" has ${terminalsOf(comp as { kind: string }).join(', ')}` })
       }
     }
   }
-  return { errors, terminals: valid }
+  return { errors, terminals }
 }
 
 function issueMessage(issue: z.core.$ZodIssue): string {
@@ -129,7 +157,7 @@ export function parseCircuit(input: unknown): ParseResult {
  * parseCircuit, also returning the index of every terminal name (see crossCheckIndexed), valid
  * for the returned document as long as it is not changed: for a solve that follows at once.
  */
-export function parseCircuitIndexed(input: unknown): { ok: true; circuit: Circuit; terminals: Map<string, number> } | { ok: false; errors: CircuitError[] } {
+export function parseCircuitIndexed(input: unknown): { ok: true; circuit: Circuit; terminals: TerminalIndex } | { ok: false; errors: CircuitError[] } {
   let doc = input
   if (typeof input === 'string') {
     try {

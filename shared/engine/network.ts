@@ -14,6 +14,7 @@
 import Complex from 'complex.js'
 import type { Circuit, Component, Transformer } from '../circuit/schema'
 import { terminalsOf } from '../circuit/schema'
+import type { TerminalIndex } from '../circuit/parse'
 import { ComplexSymmetricSystem, SingularSystemError } from './sparse'
 
 /** Every node's conductance to ground (circuit-format.md: 1 GΩ). */
@@ -141,10 +142,10 @@ export function windingRatedAmps(t: Transformer): { primary: number; coils: numb
 }
 
 /**
- * @param terminals every terminal name's index in document order, as parseCircuitIndexed
- * gives it for this very document (worked out here when absent)
+ * @param terminals the terminals and wire ends as parseCircuitIndexed found them in this very
+ * document, unchanged since (worked out here when absent)
  */
-export function buildTopology(circuit: Circuit, terminals?: Map<string, number>): Topology {
+export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topology {
   const comps = circuit.components
   const byId = new Map<string, Component>()
   /** index of each component's first terminal; its terminals follow in terminalsOf order */
@@ -156,17 +157,33 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
     base[k] = count
     count += terminalsOf(c).length
   }
-  let index = terminals
-  if (!index || index.size !== count) {
+  const wires = circuit.wires
+  let index: Map<string, number>
+  let terminalNames: string[]
+  let wireEnds: number[]
+  if (terminals && terminals.index.size === count && terminals.wireEnds.length === 2 * wires.length) {
+    ;({ index, names: terminalNames, wireEnds } = terminals)
+  } else {
     index = new Map<string, number>()
-    for (const c of comps) for (const t of terminalsOf(c)) index.set(`${c.id}.${t}`, index.size)
+    terminalNames = []
+    for (const c of comps) {
+      for (const t of terminalsOf(c)) {
+        index.set(`${c.id}.${t}`, terminalNames.length)
+        terminalNames.push(`${c.id}.${t}`)
+      }
+    }
+    wireEnds = new Array<number>(2 * wires.length)
+    for (let w = 0; w < wires.length; w++) {
+      wireEnds[2 * w] = index.get(wires[w]![0]) ?? -1
+      wireEnds[2 * w + 1] = index.get(wires[w]![1]) ?? -1
+    }
   }
   const GROUND = count
   const uf = new UnionFind(count + 1)
-  for (const [from, to] of circuit.wires) {
-    const a = index.get(from)
-    const b = index.get(to)
-    if (a !== undefined && b !== undefined) uf.union(a, b)
+  for (let w = 0; w < wires.length; w++) {
+    const a = wireEnds[2 * w]!
+    const b = wireEnds[2 * w + 1]!
+    if (a >= 0 && b >= 0) uf.union(a, b)
   }
   for (let k = 0; k < comps.length; k++) {
     const c = comps[k]!
@@ -179,10 +196,8 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
   const nodeOf: number[] = new Array<number>(count)
   const rootNode: number[] = new Array<number>(count + 1).fill(-1)
   const nodeLabels: string[][] = []
-  const terminalNames: string[] = new Array<string>(count)
-  let i = 0
-  for (const name of index.keys()) {
-    terminalNames[i] = name
+  for (let i = 0; i < count; i++) {
+    const name = terminalNames[i]!
     const root = uf.find(i)
     let node = -1
     if (root !== groundRoot) {
@@ -193,7 +208,7 @@ export function buildTopology(circuit: Circuit, terminals?: Map<string, number>)
         nodeLabels.push([name])
       } else nodeLabels[node]!.push(name)
     }
-    nodeOf[i++] = node
+    nodeOf[i] = node
   }
 
   const units: Unit[] = []

@@ -2,7 +2,7 @@
  * solve(document) → the settled result of circuit-format.md: solve, find the protective
  * device that operates first, open it, solve again, until nothing more operates.
  */
-import { parseCircuitIndexed, type CircuitError } from '../circuit/parse'
+import { parseCircuitIndexed, type CircuitError, type TerminalIndex } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
 import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
@@ -80,7 +80,7 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
 }
 
 /** Solves an already-validated document (defaults filled in). */
-export function solveCircuit(circuit: Circuit, terminals?: Map<string, number>): SolveDetail {
+export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex): SolveDetail {
   const topo = buildTopology(circuit, terminals)
   const firstSupply = circuit.components.find((c) => c.kind === 'supply')
   const hz = firstSupply?.kind === 'supply' ? firstSupply.hz : 60
@@ -168,9 +168,17 @@ function buildResult(
   const { vRe, vIm } = sol
   const names = topo.terminalNames
   const nodes = topo.terminalNodes
+  // each node's reading once: several terminals share a node
+  const nodeVolts: number[] = new Array<number>(topo.nodeCount)
+  const nodeDegrees: number[] = new Array<number>(topo.nodeCount)
+  for (let node = 0; node < topo.nodeCount; node++) {
+    const r = reading(vRe[node]!, vIm[node]!)
+    nodeVolts[node] = r.volts
+    nodeDegrees[node] = r.degrees
+  }
   for (let k = 0; k < names.length; k++) {
     const node = nodes[k]!
-    terminals[names[k]!] = node < 0 ? { volts: 0, degrees: 0 } : reading(vRe[node]!, vIm[node]!)
+    terminals[names[k]!] = node < 0 ? { volts: 0, degrees: 0 } : { volts: nodeVolts[node]!, degrees: nodeDegrees[node]! }
   }
   const re = (node: number) => (node < 0 ? 0 : vRe[node]!)
   const im = (node: number) => (node < 0 ? 0 : vIm[node]!)
