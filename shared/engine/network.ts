@@ -57,13 +57,24 @@ export interface Unit {
   node: Record<string, number>
 }
 
+/** A complex number as a plain pair (the engine's hot paths build no Complex objects). */
+export interface Phasor {
+  re: number
+  im: number
+}
+
+const inverse = (re: number, im: number): Phasor => {
+  const d = re * re + im * im
+  return { re: re / d, im: -im / d }
+}
+
 export interface SupplyPhase {
   supply: string
   phase: 'A' | 'B' | 'C'
   star: number
   line: number
-  emf: Complex
-  z: Complex
+  emf: Phasor
+  z: Phasor
 }
 
 export interface SwitchPole {
@@ -122,13 +133,25 @@ class UnionFind {
 
 /** Series impedance of each winding, in ohms at that winding (circuit-format.md). */
 export function windingImpedances(t: Transformer): { primary: Complex; coils: Complex[] } {
+  const z = windingSeries(t)
+  return { primary: new Complex(z.primary.re, z.primary.im), coils: z.coils.map((c) => new Complex(c.re, c.im)) }
+}
+
+/** windingImpedances as plain pairs. */
+function windingSeries(t: Transformer): { primary: Phasor; coils: Phasor[] } {
   const zpu = t.impedancePercent / 100
   const rpu = zpu / Math.sqrt(1 + t.xOverR * t.xOverR)
-  const unit = new Complex(rpu, rpu * t.xOverR)
+  const ur = rpu
+  const ui = rpu * t.xOverR
   const va = t.kva * 1000
-  const totalCoilVolts = t.secondaryVolts.reduce((s, v) => s + v, 0)
-  const primary = unit.mul((0.5 * t.primaryVolts * t.primaryVolts) / va)
-  const coils = t.secondaryVolts.map((v) => unit.mul((0.5 * v * v) / (va * (v / totalCoilVolts))))
+  let totalCoilVolts = 0
+  for (const v of t.secondaryVolts) totalCoilVolts += v
+  const kp = (0.5 * t.primaryVolts * t.primaryVolts) / va
+  const primary = { re: ur * kp, im: ui * kp }
+  const coils = t.secondaryVolts.map((v) => {
+    const k = (0.5 * v * v) / (va * (v / totalCoilVolts))
+    return { re: ur * k, im: ui * k }
+  })
   return { primary, coils }
 }
 
@@ -233,25 +256,26 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
         const angles = c.rotation === 'ABC' ? { A: 0, B: -120, C: 120 } : { A: 0, B: 120, C: -120 }
         for (let q = 0; q < 3; q++) {
           const phase = (['A', 'B', 'C'] as const)[q]!
+          const arg = (angles[phase] * Math.PI) / 180
           phases.push({
             supply: c.id,
             phase,
             star,
             line: nodeOf[b0 + q]!,
-            emf: Complex({ abs: vPhase, arg: (angles[phase] * Math.PI) / 180 }),
-            z: new Complex(c.sourceOhms.r, c.sourceOhms.x),
+            emf: { re: vPhase * Math.cos(arg), im: vPhase * Math.sin(arg) },
+            z: { re: c.sourceOhms.r, im: c.sourceOhms.x },
           })
         }
         break
       }
       case 'transformer': {
-        const z = windingImpedances(c)
+        const z = windingSeries(c)
         const rated = windingRatedAmps(c)
         const gain = 1 + c.compensationPercent / 100
         const windings: Winding[] = []
         // terminals H1, H2, X1, X2 (, X3, X4) from b0 on: a winding's ends are consecutive
-        const add = (name: string, dot: string, undot: string, at: number, turns: number, volts: number, amps: number, zw: Complex) => {
-          const y = zw.inverse()
+        const add = (name: string, dot: string, undot: string, at: number, turns: number, volts: number, amps: number, zw: Phasor) => {
+          const y = inverse(zw.re, zw.im)
           windings.push({ name, dot, undot, a: nodeOf[at]!, b: nodeOf[at + 1]!, turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
         }
         add('H1-H2', 'H1', 'H2', b0, c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
@@ -273,8 +297,8 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
         poles.push({ device: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
         break
       case 'load': {
-        const z = typeof c.ohms === 'number' ? new Complex(c.ohms, 0) : new Complex(c.ohms.r, c.ohms.x)
-        loads.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]!, y: z.inverse() })
+        const y = typeof c.ohms === 'number' ? inverse(c.ohms, 0) : inverse(c.ohms.r, c.ohms.x)
+        loads.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]!, y: new Complex(y.re, y.im) })
         break
       }
       case 'voltmeter':
@@ -323,7 +347,7 @@ function checkSourceLoops(topo: Topology) {
   const key = (n: number) => (n < 0 ? topo.nodeCount : n)
   const seen: SupplyPhase[] = []
   for (const ph of topo.phases) {
-    if (ph.z.abs() > 0) continue
+    if (ph.z.re !== 0 || ph.z.im !== 0) continue
     seen.push(ph)
     if (!uf.union(key(ph.star), key(ph.line))) {
       const parts = [...new Set(seen.map((p) => p.supply))]
