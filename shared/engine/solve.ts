@@ -194,12 +194,12 @@ function buildResult(
       const dr = re(w.a) - re(w.b)
       const di = im(w.a) - im(w.b)
       const volts = Math.sqrt(dr * dr + di * di)
-      const amps = round(Math.sqrt(i.re * i.re + i.im * i.im), 4)
+      const windingAmps = round(Math.sqrt(i.re * i.re + i.im * i.im), 4)
       let wr: SolveResult['windings'][string]
-      if (volts < 1e-6) wr = { volts: 0, degrees: 0, amps }
+      if (volts < 1e-6) wr = { volts: 0, degrees: 0, amps: windingAmps }
       else {
         const deg = round(degreesOf(dr, di), 2)
-        wr = { volts: round(volts, 4), degrees: deg === -180 ? 180 : deg, amps }
+        wr = { volts: round(volts, 4), degrees: deg === -180 ? 180 : deg, amps: windingAmps }
       }
       windings[`${u.id}.${w.name}`] = wr
     }
