@@ -11,6 +11,16 @@ export interface CircuitError {
   message: string
 }
 
+/** The terminals of a document, as the wiring check found them. */
+export interface TerminalIndex {
+  /** the index of each terminal name: the components' terminals in turn, as terminalsOf lists them */
+  index: Map<string, number>
+  /** the name of each terminal by its index */
+  names: string[]
+  /** the terminal index of each wire's ends (wire w at 2w and 2w + 1), -1 for an unknown one */
+  wireEnds: number[]
+}
+
 export type ParseResult = { ok: true; circuit: Circuit } | { ok: false; errors: CircuitError[] }
 
 const MAX_ERRORS = 50
@@ -35,30 +45,59 @@ function isRecord(v: unknown): v is Record<string, unknown> {
  * that these errors are reported together with any shape errors.
  */
 export function crossCheck(doc: unknown): CircuitError[] {
-  if (!isRecord(doc) || !Array.isArray(doc.components)) return []
-  const errors: CircuitError[] = []
-  const byId = new Map<string, { index: number; kind: string; terminals: string[] }>()
+  return crossCheckIndexed(doc).errors
+}
+
+/**
+ * crossCheck, also giving every terminal name its index in document order (the components'
+ * terminals in turn, as `terminalsOf` lists them): the solver's topology starts from it.
+ */
+function crossCheckIndexed(doc: unknown): { errors: CircuitError[]; terminals: TerminalIndex } {
   /** every terminal name a wire may use, so a sound wire is one lookup per end */
-  const valid = new Set<string>()
-  doc.components.forEach((c, index) => {
-    if (!isRecord(c) || typeof c.id !== 'string') return
+  const valid = new Map<string, number>()
+  const names: string[] = []
+  const wireEnds: number[] = []
+  const terminals: TerminalIndex = { index: valid, names, wireEnds }
+  if (!isRecord(doc) || !Array.isArray(doc.components)) return { errors: [], terminals }
+  const errors: CircuitError[] = []
+  const components: unknown[] = doc.components
+  /** the index of the component with each id */
+  const byId = new Map<string, number>()
+  for (let index = 0; index < components.length; index++) {
+    const c = components[index]
+    if (!isRecord(c) || typeof c.id !== 'string') continue
     const seen = byId.get(c.id)
-    if (seen) {
-      errors.push({ path: `components[${index}].id`, message: `duplicate id "${c.id}": components[${seen.index}] already uses it` })
-      return
+    if (seen !== undefined) {
+      errors.push({ path: `components[${index}].id`, message: `duplicate id "${c.id}": components[${seen}] already uses it` })
+      continue
     }
-    const kind = typeof c.kind === 'string' ? c.kind : ''
-    const terminals = terminalsOf(c as { kind: string })
-    byId.set(c.id, { index, kind, terminals })
-    for (const t of terminals) valid.add(`${c.id}.${t}`)
-  })
-  if (!Array.isArray(doc.wires)) return errors
-  doc.wires.forEach((w, index) => {
-    if (!Array.isArray(w) || w.length !== 2) return
+    byId.set(c.id, index)
+    for (const t of terminalsOf(c as { kind: string })) {
+      const name = `${c.id}.${t}`
+      valid.set(name, names.length)
+      names.push(name)
+    }
+  }
+  if (!Array.isArray(doc.wires)) return { errors, terminals }
+  const wires: unknown[] = doc.wires
+  for (let index = 0; index < wires.length; index++) {
+    const w = wires[index]
+    if (!Array.isArray(w) || w.length !== 2) {
+      wireEnds.push(-1, -1)
+      continue
+    }
     if (w[0] === w[1] && typeof w[0] === 'string') errors.push({ path: `wires[${index}]`, message: `a wire from "${w[0]}" to itself` })
     for (let side = 0; side < 2; side++) {
       const end: unknown = w[side]
-      if (typeof end !== 'string' || valid.has(end)) continue
+      const at = typeof end === 'string' ? valid.get(end) : undefined
+      wireEnds.push(at ?? -1)
+      if (at !== undefined) {
+        // the name as the document spells it: the same text, and the string JSON.parse made
+        // is one V8 has already interned, so the result's key costs less
+        names[at] = end as string
+        continue
+      }
+      if (typeof end !== 'string') continue
       const path = `wires[${index}][${side}]`
       const parts = splitTerminal(end)
       if (!parts) {
@@ -66,15 +105,19 @@ export function crossCheck(doc: unknown): CircuitError[] {
         continue
       }
       const [cid] = parts
-      const comp = byId.get(cid)
-      if (!comp) {
+      const byIdAt = byId.get(cid)
+      if (byIdAt === undefined) {
         errors.push({ path, message: `unknown terminal "${end}": there is no component "${cid}"` })
-      } else if ((COMPONENT_KINDS as readonly string[]).includes(comp.kind)) {
-        errors.push({ path, message: `unknown terminal "${end}": a ${comp.kind} "${cid}" has ${comp.terminals.join(', ')}` })
+        continue
+      }
+      const comp = components[byIdAt] as Record<string, unknown>
+      const kind = typeof comp.kind === 'string' ? comp.kind : ''
+      if ((COMPONENT_KINDS as readonly string[]).includes(kind)) {
+        errors.push({ path, message: `unknown terminal "${end}": a ${kind} "${cid}" has ${terminalsOf(comp as { kind: string }).join(', ')}` })
       }
     }
-  })
-  return errors
+  }
+  return { errors, terminals }
 }
 
 function issueMessage(issue: z.core.$ZodIssue): string {
@@ -106,6 +149,15 @@ export function circuitErrorsFrom(error: z.ZodError): CircuitError[] {
  * defaults filled in, or every error found, each naming its path.
  */
 export function parseCircuit(input: unknown): ParseResult {
+  const r = parseCircuitIndexed(input)
+  return r.ok ? { ok: true, circuit: r.circuit } : r
+}
+
+/**
+ * parseCircuit, also returning the index of every terminal name (see crossCheckIndexed), valid
+ * for the returned document as long as it is not changed: for a solve that follows at once.
+ */
+export function parseCircuitIndexed(input: unknown): { ok: true; circuit: Circuit; terminals: TerminalIndex } | { ok: false; errors: CircuitError[] } {
   let doc = input
   if (typeof input === 'string') {
     try {
@@ -118,10 +170,11 @@ export function parseCircuit(input: unknown): ParseResult {
   const shape = CircuitShapeSchema.safeParse(doc)
   const errors = shape.success ? [] : circuitErrorsFrom(shape.error)
   const seen = new Set(errors.map((e) => `${e.path}\n${e.message}`))
-  for (const e of crossCheck(doc)) {
+  const cross = crossCheckIndexed(doc)
+  for (const e of cross.errors) {
     const key = `${e.path}\n${e.message}`
     if (!seen.has(key)) errors.push(e)
   }
   if (errors.length > 0 || !shape.success) return { ok: false, errors: errors.slice(0, MAX_ERRORS) }
-  return { ok: true, circuit: shape.data }
+  return { ok: true, circuit: shape.data, terminals: cross.terminals }
 }

@@ -42,26 +42,26 @@ export const SupplySchema = z.object({
   kind: z.literal('supply'),
   connection: z.enum(['wye', 'delta'], { error: 'connection must be "wye" or "delta"' }),
   lineVolts: positive('lineVolts', 1_000_000, ' V'),
-  hz: positive('hz', 1000, ' Hz').default(60),
-  rotation: z.enum(['ABC', 'ACB'], { error: 'rotation must be "ABC" or "ACB"' }).default('ABC'),
+  hz: positive('hz', 1000, ' Hz').default(() => 60),
+  rotation: z.enum(['ABC', 'ACB'], { error: 'rotation must be "ABC" or "ACB"' }).default(() => 'ABC' as const),
   sourceOhms: z
     .object({ r: bounded('sourceOhms.r', 0, 1e6), x: bounded('sourceOhms.x', 0, 1e6) })
-    .default({ r: 0.02, x: 0.05 }),
+    .default(() => ({ r: 0.02, x: 0.05 })),
 })
 
 export const BreakerSchema = z.object({
   id,
   kind: z.literal('breaker'),
-  poles: z.union([z.literal(1), z.literal(2), z.literal(3)], { error: 'poles must be 1, 2 or 3' }).default(3),
+  poles: z.literal([1, 2, 3], { error: 'poles must be 1, 2 or 3' }).default(() => 3 as const),
   amps: positive('amps', 100_000, ' A'),
-  closed: z.boolean({ error: 'closed must be true or false' }).default(false),
+  closed: z.boolean({ error: 'closed must be true or false' }).default(() => false),
 })
 
 export const FuseSchema = z.object({
   id,
   kind: z.literal('fuse'),
   amps: positive('amps', 100_000, ' A'),
-  blown: z.boolean({ error: 'blown must be true or false' }).default(false),
+  blown: z.boolean({ error: 'blown must be true or false' }).default(() => false),
 })
 
 export const TransformerSchema = z.object({
@@ -73,9 +73,9 @@ export const TransformerSchema = z.object({
     .array(positive('secondaryVolts', 1_000_000, ' V'), { error: 'secondaryVolts must be a list of one or two coil voltages' })
     .min(1, { error: 'secondaryVolts needs one or two coil voltages' })
     .max(2, { error: 'secondaryVolts holds at most two coil voltages' }),
-  impedancePercent: bounded('impedancePercent', 0.01, 50).default(3),
-  xOverR: bounded('xOverR', 0, 100).default(1.5),
-  compensationPercent: bounded('compensationPercent', -20, 20).default(0),
+  impedancePercent: bounded('impedancePercent', 0.01, 50).default(() => 3),
+  xOverR: bounded('xOverR', 0, 100).default(() => 1.5),
+  compensationPercent: bounded('compensationPercent', -20, 20).default(() => 0),
 })
 
 /** Below this a load is a short: draw a jumper instead (it keeps the equations well conditioned). */
@@ -142,30 +142,35 @@ export type Circuit = z.infer<typeof CircuitShapeSchema>
 export type CircuitInput = z.input<typeof CircuitShapeSchema>
 export type ComponentInput = z.input<typeof ComponentSchema>
 
-/** Terminal names of a component, in the order a drawing shows them. */
-export function terminalsOf(c: { kind: string; poles?: unknown; secondaryVolts?: unknown; connection?: unknown }): string[] {
+const SUPPLY_WYE = ['A', 'B', 'C', 'N'] as const
+const SUPPLY_DELTA = ['A', 'B', 'C'] as const
+const BREAKER_POLES = [[], ['L1', 'T1'], ['L1', 'L2', 'T1', 'T2'], ['L1', 'L2', 'L3', 'T1', 'T2', 'T3']] as const
+const ONE_COIL = ['H1', 'H2', 'X1', 'X2'] as const
+const TWO_COILS = ['H1', 'H2', 'X1', 'X2', 'X3', 'X4'] as const
+const TWO_ENDS = ['a', 'b'] as const
+const OUTPUT = ['a', 'b', 'c', 'n'] as const
+const GROUND = ['g'] as const
+const NONE = [] as const
+
+/** Terminal names of a component, in the order a drawing shows them (shared lists: do not modify). */
+export function terminalsOf(c: { kind: string; poles?: unknown; secondaryVolts?: unknown; connection?: unknown }): readonly string[] {
   switch (c.kind) {
     case 'supply':
-      return c.connection === 'wye' ? ['A', 'B', 'C', 'N'] : ['A', 'B', 'C']
-    case 'breaker': {
-      const poles = c.poles === 1 || c.poles === 2 || c.poles === 3 ? c.poles : 3
-      const line = Array.from({ length: poles }, (_, i) => `L${i + 1}`)
-      return [...line, ...line.map((_, i) => `T${i + 1}`)]
-    }
+      return c.connection === 'wye' ? SUPPLY_WYE : SUPPLY_DELTA
+    case 'breaker':
+      return BREAKER_POLES[c.poles === 1 || c.poles === 2 || c.poles === 3 ? c.poles : 3]
     case 'transformer':
-      return Array.isArray(c.secondaryVolts) && c.secondaryVolts.length === 1
-        ? ['H1', 'H2', 'X1', 'X2']
-        : ['H1', 'H2', 'X1', 'X2', 'X3', 'X4']
+      return Array.isArray(c.secondaryVolts) && c.secondaryVolts.length === 1 ? ONE_COIL : TWO_COILS
     case 'fuse':
     case 'load':
     case 'voltmeter':
-      return ['a', 'b']
+      return TWO_ENDS
     case 'output':
-      return ['a', 'b', 'c', 'n']
+      return OUTPUT
     case 'ground':
-      return ['g']
+      return GROUND
     default:
-      return []
+      return NONE
   }
 }
 

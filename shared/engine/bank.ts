@@ -68,15 +68,20 @@ function isUsed(topo: Topology, unit: Unit, terminal: string): boolean {
 }
 
 // how each unit's coils are joined, and the edges of each side, depend on the wiring alone:
-// worked out once per topology, however many times the protection study solves it
-const coilModes = new WeakMap<Topology, Map<string, UnitCoilMode>>()
-const edgeCache = new WeakMap<Topology, { primary: BankEdge[]; secondary: BankEdge[] }>()
+// worked out once per topology (kept on it), however many times the protection study solves it
+interface BankCache {
+  coilModes: Map<Unit, UnitCoilMode>
+  edges?: { primary: BankEdge[]; secondary: BankEdge[] }
+}
+
+function cacheOf(topo: Topology): BankCache {
+  return (topo.bankCache ??= { coilModes: new Map() }) as BankCache
+}
 
 export function unitCoilMode(topo: Topology, unit: Unit): UnitCoilMode {
-  let modes = coilModes.get(topo)
-  if (!modes) coilModes.set(topo, (modes = new Map()))
-  let mode = modes.get(unit.id)
-  if (!mode) modes.set(unit.id, (mode = readCoilMode(topo, unit)))
+  const modes = cacheOf(topo).coilModes
+  let mode = modes.get(unit)
+  if (!mode) modes.set(unit, (mode = readCoilMode(topo, unit)))
   return mode
 }
 
@@ -119,29 +124,38 @@ function secondaryEdges(topo: Topology, unit: Unit): BankEdge[] {
 }
 
 function groupEdges(edges: BankEdge[], merge: (n: number) => number): BankEdge[][] {
+  const m = edges.length
+  /** the merged node at each end: 2i the dotted end of edge i, 2i + 1 the other */
+  const end: number[] = new Array<number>(2 * m)
   const byNode = new Map<number, number[]>()
-  edges.forEach((e, i) => {
-    for (const n of [merge(e.from), merge(e.to)]) {
-      const list = byNode.get(n) ?? []
-      list.push(i)
-      byNode.set(n, list)
+  for (let i = 0; i < m; i++) {
+    const e = edges[i]!
+    end[2 * i] = merge(e.from)
+    end[2 * i + 1] = merge(e.to)
+    for (let s = 0; s < 2; s++) {
+      const n = end[2 * i + s]!
+      const list = byNode.get(n)
+      if (list) list.push(i)
+      else byNode.set(n, [i])
     }
-  })
-  const seen = new Uint8Array(edges.length)
+  }
+  const seen: boolean[] = new Array<boolean>(m).fill(false)
   const groups: BankEdge[][] = []
-  for (let i = 0; i < edges.length; i++) {
+  const stack: number[] = []
+  for (let i = 0; i < m; i++) {
     if (seen[i]) continue
     const group: BankEdge[] = []
-    const stack = [i]
-    seen[i] = 1
+    stack.push(i)
+    seen[i] = true
     while (stack.length) {
       const k = stack.pop()!
-      const e = edges[k]!
-      group.push(e)
-      for (const n of [merge(e.from), merge(e.to)]) {
-        for (const j of byNode.get(n)!) {
+      group.push(edges[k]!)
+      for (let s = 0; s < 2; s++) {
+        const list = byNode.get(end[2 * k + s]!)!
+        for (let q = 0; q < list.length; q++) {
+          const j = list[q]!
           if (!seen[j]) {
-            seen[j] = 1
+            seen[j] = true
             stack.push(j)
           }
         }
@@ -153,7 +167,8 @@ function groupEdges(edges: BankEdge[], merge: (n: number) => number): BankEdge[]
 }
 
 export function sideGraphs(topo: Topology, merge: (n: number) => number): { primary: SideGraph; secondary: SideGraph } {
-  let edges = edgeCache.get(topo)
+  const cache = cacheOf(topo)
+  let edges = cache.edges
   if (!edges) {
     edges = {
       primary: topo.units.map((u) => ({
@@ -166,7 +181,7 @@ export function sideGraphs(topo: Topology, merge: (n: number) => number): { prim
       })),
       secondary: topo.units.flatMap((u) => secondaryEdges(topo, u)),
     }
-    edgeCache.set(topo, edges)
+    cache.edges = edges
   }
   const { primary: primaryEdges, secondary: secEdges } = edges
   return {
@@ -180,8 +195,10 @@ function nodeRoles(topo: Topology, node: number): { neutral: boolean; line: bool
   let neutral = false
   let line = false
   for (const label of topo.nodeLabels[node]!) {
-    const [id, t] = label.split('.')
-    const kind = topo.byId.get(id!)?.kind
+    const dot = label.indexOf('.')
+    const id = dot < 0 ? label : label.slice(0, dot)
+    const t = dot < 0 ? undefined : label.slice(dot + 1) // ids hold no dot
+    const kind = topo.byId.get(id)?.kind
     if (kind === 'output') (t === 'n' ? (neutral = true) : (line = true))
     if (kind === 'supply') (t === 'N' ? (neutral = true) : (line = true))
     if (kind === 'ground') neutral = true
@@ -191,39 +208,50 @@ function nodeRoles(topo: Topology, node: number): { neutral: boolean; line: bool
 
 export function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: number) => number): Connection {
   // a winding with both ends on one node is shorted out: no connection the trade names
-  if (group.some((e) => merge(e.from) === merge(e.to))) return 'other'
+  for (const e of group) if (merge(e.from) === merge(e.to)) return 'other'
   if (group.length === 1) return 'single-phase'
-  const degree = new Map<number, number>()
-  const ends = new Map<number, ('dot' | 'undot')[]>()
-  const rawNode = new Map<number, number>()
+  if (group.length !== 2 && group.length !== 3) return 'other'
+  // the (at most six) merged nodes of the group: degree, the ends meeting there, one raw node
+  const nodes: number[] = []
+  const degree: number[] = []
+  const dots: number[] = []
+  const rawNode: number[] = []
   for (const e of group) {
-    for (const [n, end] of [[e.from, 'dot'], [e.to, 'undot']] as const) {
+    for (let s = 0; s < 2; s++) {
+      const n = s === 0 ? e.from : e.to
       const m = merge(n)
-      degree.set(m, (degree.get(m) ?? 0) + 1)
-      ends.set(m, [...(ends.get(m) ?? []), end])
-      rawNode.set(m, n)
+      let k = nodes.indexOf(m)
+      if (k < 0) {
+        k = nodes.length
+        nodes.push(m)
+        degree.push(0)
+        dots.push(0)
+        rawNode.push(n)
+      }
+      degree[k]!++
+      if (s === 0) dots[k]!++
+      rawNode[k] = n
     }
   }
-  const degrees = [...degree.values()].sort()
-  const starLike = (centre: number) => {
-    const roles = nodeRoles(topo, rawNode.get(centre)!)
+  const count = (d: number) => degree.reduce((c, x) => c + (x === d ? 1 : 0), 0)
+  const starLike = (k: number) => {
+    const roles = nodeRoles(topo, rawNode[k]!)
     if (roles.neutral) return true
     if (roles.line) return false
-    const e = ends.get(centre)!
-    return e.every((x) => x === e[0])
+    // every end meeting there is alike: all dotted, or all undotted
+    return dots[k] === 0 || dots[k] === degree[k]
   }
+  const size = nodes.length
   if (group.length === 2) {
-    const centre = [...degree].find(([, d]) => d === 2)?.[0]
+    const centre = degree.indexOf(2)
     // two units across the same pair of nodes are in parallel: not a three-phase connection
-    if (degree.size !== 3 || centre === undefined) return 'other'
+    if (size !== 3 || centre < 0) return 'other'
     return starLike(centre) ? 'open-wye' : 'open-delta'
   }
-  if (group.length === 3) {
-    if (degree.size === 3 && degrees.every((d) => d === 2)) return 'delta'
-    const centre = [...degree].find(([, d]) => d === 3)?.[0]
-    if (degree.size === 4 && degrees.join() === '1,1,1,3' && centre !== undefined) return starLike(centre) ? 'wye' : 'other'
-    if (degree.size === 4 && degrees.join() === '1,1,2,2') return 'delta' // a delta with one corner open
-  }
+  if (size === 3 && count(2) === 3) return 'delta'
+  const centre = degree.indexOf(3)
+  if (size === 4 && count(1) === 3 && count(3) === 1 && centre >= 0) return starLike(centre) ? 'wye' : 'other'
+  if (size === 4 && count(1) === 2 && count(2) === 2) return 'delta' // a delta with one corner open
   return 'other'
 }
 
@@ -245,7 +273,7 @@ export function classifyCoils(topo: Topology): CoilMode {
 export function deltaLoops(graph: SideGraph, merge: (n: number) => number): DeltaLoop[] {
   const loops: DeltaLoop[] = []
   for (const group of graph.groups) {
-    if (group.length !== 3 || new Set(group.map((e) => e.unit)).size !== 3) continue
+    if (group.length !== 3 || group[0]!.unit === group[1]!.unit || group[0]!.unit === group[2]!.unit || group[1]!.unit === group[2]!.unit) continue
     const degree = new Map<number, number>()
     for (const e of group) for (const n of [merge(e.from), merge(e.to)]) degree.set(n, (degree.get(n) ?? 0) + 1)
     const values = [...degree.values()]

@@ -11,7 +11,7 @@
  *   region (it would open in seconds to minutes).
  */
 import type { BankEdge, DeltaLoop, SideGraph } from './bank'
-import type { StageSolution, Topology, Unit } from './network'
+import { nodeOfTerminal, type StageSolution, type Topology, type Unit } from './network'
 import { operatingTime, type DeviceKind } from './protection'
 import type { ClosingCheck, Hazard } from './types'
 
@@ -41,7 +41,7 @@ export interface HazardContext {
 }
 
 function voltage(ctx: HazardContext, terminal: string): C {
-  const node = ctx.topo.terminalNode.get(terminal)!
+  const node = nodeOfTerminal(ctx.topo, terminal)!
   return node < 0 ? [0, 0] : [ctx.sol.vRe[node]!, ctx.sol.vIm[node]!]
 }
 
@@ -192,14 +192,19 @@ export function windingHazards(ctx: HazardContext): Hazard[] {
   const hazards: Hazard[] = []
   ctx.topo.units.forEach((unit, ui) => {
     const solved = ctx.sol.units[ui]!
+    const { vRe, vIm } = ctx.sol
     let worstV = { ratio: 0, name: '', volts: 0, rated: 0 }
     let worstA = { ratio: 0, name: '', amps: 0, rated: 0 }
-    unit.windings.forEach((w, k) => {
-      const volts = abs(sub(nodeVoltage(ctx, w.a), nodeVoltage(ctx, w.b)))
-      const amps = abs([solved.current[k]!.re, solved.current[k]!.im])
+    for (let k = 0; k < unit.windings.length; k++) {
+      const w = unit.windings[k]!
+      const dr = (w.a < 0 ? 0 : vRe[w.a]!) - (w.b < 0 ? 0 : vRe[w.b]!)
+      const di = (w.a < 0 ? 0 : vIm[w.a]!) - (w.b < 0 ? 0 : vIm[w.b]!)
+      const volts = Math.sqrt(dr * dr + di * di)
+      const i = solved.current[k]!
+      const amps = Math.sqrt(i.re * i.re + i.im * i.im)
       if (volts / w.ratedVolts > worstV.ratio) worstV = { ratio: volts / w.ratedVolts, name: w.name, volts, rated: w.ratedVolts }
       if (amps / w.ratedAmps > worstA.ratio) worstA = { ratio: amps / w.ratedAmps, name: w.name, amps, rated: w.ratedAmps }
-    })
+    }
     if (worstV.ratio > OVERVOLTAGE_LIMIT) {
       hazards.push({
         code: 'winding-overvoltage',

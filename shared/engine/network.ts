@@ -14,6 +14,7 @@
 import Complex from 'complex.js'
 import type { Circuit, Component, Transformer } from '../circuit/schema'
 import { terminalsOf } from '../circuit/schema'
+import type { TerminalIndex } from '../circuit/parse'
 import { ComplexSymmetricSystem, SingularSystemError } from './sparse'
 
 /** Every node's conductance to ground (circuit-format.md: 1 GΩ). */
@@ -56,13 +57,24 @@ export interface Unit {
   node: Record<string, number>
 }
 
+/** A complex number as a plain pair (the engine's hot paths build no Complex objects). */
+export interface Phasor {
+  re: number
+  im: number
+}
+
+const inverse = (re: number, im: number): Phasor => {
+  const d = re * re + im * im
+  return { re: re / d, im: -im / d }
+}
+
 export interface SupplyPhase {
   supply: string
   phase: 'A' | 'B' | 'C'
   star: number
   line: number
-  emf: Complex
-  z: Complex
+  emf: Phasor
+  z: Phasor
 }
 
 export interface SwitchPole {
@@ -75,8 +87,13 @@ export interface Topology {
   circuit: Circuit
   byId: Map<string, Component>
   unitById: Map<string, Unit>
-  /** node of each terminal "ID.T"; -1 is ground (the reference) */
-  terminalNode: Map<string, number>
+  /** node of each terminal "ID.T"; -1 is ground (the reference); built on first use (see nodeOfTerminal) */
+  readonly terminalNode: Map<string, number>
+  /** index of each terminal name, in document order */
+  terminalIndex: Map<string, number>
+  /** the same as two lists in document order: each terminal's name and its node */
+  terminalNames: string[]
+  terminalNodes: number[]
   /** circuit nodes plus the hidden star point of each delta supply */
   nodeCount: number
   nodeLabels: string[][]
@@ -85,6 +102,8 @@ export interface Topology {
   poles: SwitchPole[]
   loads: { id: string; a: number; b: number; y: Complex }[]
   meters: { id: string; a: number; b: number }[]
+  /** what bank.ts reads from the wiring alone, worked out there on first use */
+  bankCache?: unknown
 }
 
 class UnionFind {
@@ -114,13 +133,25 @@ class UnionFind {
 
 /** Series impedance of each winding, in ohms at that winding (circuit-format.md). */
 export function windingImpedances(t: Transformer): { primary: Complex; coils: Complex[] } {
+  const z = windingSeries(t)
+  return { primary: new Complex(z.primary.re, z.primary.im), coils: z.coils.map((c) => new Complex(c.re, c.im)) }
+}
+
+/** windingImpedances as plain pairs. */
+function windingSeries(t: Transformer): { primary: Phasor; coils: Phasor[] } {
   const zpu = t.impedancePercent / 100
   const rpu = zpu / Math.sqrt(1 + t.xOverR * t.xOverR)
-  const unit = new Complex(rpu, rpu * t.xOverR)
+  const ur = rpu
+  const ui = rpu * t.xOverR
   const va = t.kva * 1000
-  const totalCoilVolts = t.secondaryVolts.reduce((s, v) => s + v, 0)
-  const primary = unit.mul((0.5 * t.primaryVolts * t.primaryVolts) / va)
-  const coils = t.secondaryVolts.map((v) => unit.mul((0.5 * v * v) / (va * (v / totalCoilVolts))))
+  let totalCoilVolts = 0
+  for (const v of t.secondaryVolts) totalCoilVolts += v
+  const kp = (0.5 * t.primaryVolts * t.primaryVolts) / va
+  const primary = { re: ur * kp, im: ui * kp }
+  const coils = t.secondaryVolts.map((v) => {
+    const k = (0.5 * v * v) / (va * (v / totalCoilVolts))
+    return { re: ur * k, im: ui * k }
+  })
   return { primary, coils }
 }
 
@@ -133,55 +164,84 @@ export function windingRatedAmps(t: Transformer): { primary: number; coils: numb
   }
 }
 
-export function buildTopology(circuit: Circuit): Topology {
+/**
+ * @param terminals the terminals and wire ends as parseCircuitIndexed found them in this very
+ * document, unchanged since (worked out here when absent)
+ */
+export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topology {
+  const comps = circuit.components
   const byId = new Map<string, Component>()
-  const names: string[] = []
-  const index = new Map<string, number>()
-  for (const c of circuit.components) {
+  /** index of each component's first terminal; its terminals follow in terminalsOf order */
+  const base: number[] = new Array<number>(comps.length)
+  let count = 0
+  for (let k = 0; k < comps.length; k++) {
+    const c = comps[k]!
     byId.set(c.id, c)
-    for (const t of terminalsOf(c)) {
-      index.set(`${c.id}.${t}`, names.length)
-      names.push(`${c.id}.${t}`)
+    base[k] = count
+    count += terminalsOf(c).length
+  }
+  const wires = circuit.wires
+  let index: Map<string, number>
+  let terminalNames: string[]
+  let wireEnds: number[]
+  if (terminals && terminals.index.size === count && terminals.wireEnds.length === 2 * wires.length) {
+    ;({ index, names: terminalNames, wireEnds } = terminals)
+  } else {
+    index = new Map<string, number>()
+    terminalNames = []
+    for (const c of comps) {
+      for (const t of terminalsOf(c)) {
+        index.set(`${c.id}.${t}`, terminalNames.length)
+        terminalNames.push(`${c.id}.${t}`)
+      }
+    }
+    wireEnds = new Array<number>(2 * wires.length)
+    for (let w = 0; w < wires.length; w++) {
+      wireEnds[2 * w] = index.get(wires[w]![0]) ?? -1
+      wireEnds[2 * w + 1] = index.get(wires[w]![1]) ?? -1
     }
   }
-  const GROUND = names.length
-  const uf = new UnionFind(names.length + 1)
-  for (const [from, to] of circuit.wires) {
-    const a = index.get(from)
-    const b = index.get(to)
-    if (a !== undefined && b !== undefined) uf.union(a, b)
+  const GROUND = count
+  const uf = new UnionFind(count + 1)
+  for (let w = 0; w < wires.length; w++) {
+    const a = wireEnds[2 * w]!
+    const b = wireEnds[2 * w + 1]!
+    if (a >= 0 && b >= 0) uf.union(a, b)
   }
-  for (const c of circuit.components) {
-    if (c.kind === 'ground') uf.union(index.get(`${c.id}.g`)!, GROUND)
-    // circuit-format.md: a wye supply's N is bonded to ground
-    if (c.kind === 'supply' && c.connection === 'wye') uf.union(index.get(`${c.id}.N`)!, GROUND)
+  for (let k = 0; k < comps.length; k++) {
+    const c = comps[k]!
+    if (c.kind === 'ground') uf.union(base[k]!, GROUND)
+    // circuit-format.md: a wye supply's N is bonded to ground (N is its fourth terminal)
+    if (c.kind === 'supply' && c.connection === 'wye') uf.union(base[k]! + 3, GROUND)
   }
   const groundRoot = uf.find(GROUND)
-  const rootNode = new Map<number, number>()
+  /** node of each terminal by its index */
+  const nodeOf: number[] = new Array<number>(count)
+  const rootNode: number[] = new Array<number>(count + 1).fill(-1)
   const nodeLabels: string[][] = []
-  const terminalNode = new Map<string, number>()
-  names.forEach((name, i) => {
+  for (let i = 0; i < count; i++) {
+    const name = terminalNames[i]!
     const root = uf.find(i)
     let node = -1
     if (root !== groundRoot) {
-      node = rootNode.get(root) ?? -1
+      node = rootNode[root]!
       if (node < 0) {
         node = nodeLabels.length
-        rootNode.set(root, node)
-        nodeLabels.push([])
-      }
-      nodeLabels[node]!.push(name)
+        rootNode[root] = node
+        nodeLabels.push([name])
+      } else nodeLabels[node]!.push(name)
     }
-    terminalNode.set(name, node)
-  })
-  const at = (id: string, t: string) => terminalNode.get(`${id}.${t}`)!
+    nodeOf[i] = node
+  }
 
   const units: Unit[] = []
   const phases: SupplyPhase[] = []
   const poles: SwitchPole[] = []
   const loads: Topology['loads'] = []
   const meters: Topology['meters'] = []
-  for (const c of circuit.components) {
+  for (let k = 0; k < comps.length; k++) {
+    const c = comps[k]!
+    const b0 = base[k]!
     switch (c.kind) {
       case 'supply': {
         let star = -1
@@ -194,57 +254,91 @@ export function buildTopology(circuit: Circuit): Topology {
         const vPhase = c.lineVolts / Math.sqrt(3)
         // circuit-format.md: V(A−N) at 0°, V(B−N) at −120°, V(C−N) at +120° for ABC
         const angles = c.rotation === 'ABC' ? { A: 0, B: -120, C: 120 } : { A: 0, B: 120, C: -120 }
-        for (const phase of ['A', 'B', 'C'] as const) {
+        for (let q = 0; q < 3; q++) {
+          const phase = (['A', 'B', 'C'] as const)[q]!
+          const arg = (angles[phase] * Math.PI) / 180
           phases.push({
             supply: c.id,
             phase,
             star,
-            line: at(c.id, phase),
-            emf: Complex({ abs: vPhase, arg: (angles[phase] * Math.PI) / 180 }),
-            z: new Complex(c.sourceOhms.r, c.sourceOhms.x),
+            line: nodeOf[b0 + q]!,
+            emf: { re: vPhase * Math.cos(arg), im: vPhase * Math.sin(arg) },
+            z: { re: c.sourceOhms.r, im: c.sourceOhms.x },
           })
         }
         break
       }
       case 'transformer': {
-        const z = windingImpedances(c)
+        const z = windingSeries(c)
         const rated = windingRatedAmps(c)
         const gain = 1 + c.compensationPercent / 100
         const windings: Winding[] = []
-        const add = (name: string, dot: string, undot: string, turns: number, volts: number, amps: number, zw: Complex) => {
-          const y = zw.inverse()
-          windings.push({ name, dot, undot, a: at(c.id, dot), b: at(c.id, undot), turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
+        // terminals H1, H2, X1, X2 (, X3, X4) from b0 on: a winding's ends are consecutive
+        const add = (name: string, dot: string, undot: string, at: number, turns: number, volts: number, amps: number, zw: Phasor) => {
+          const y = inverse(zw.re, zw.im)
+          windings.push({ name, dot, undot, a: nodeOf[at]!, b: nodeOf[at + 1]!, turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
         }
-        add('H1-H2', 'H1', 'H2', c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
-        add('X1-X2', 'X1', 'X2', c.secondaryVolts[0]! * gain, c.secondaryVolts[0]!, rated.coils[0]!, z.coils[0]!)
+        add('H1-H2', 'H1', 'H2', b0, c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
+        add('X1-X2', 'X1', 'X2', b0 + 2, c.secondaryVolts[0]! * gain, c.secondaryVolts[0]!, rated.coils[0]!, z.coils[0]!)
         if (c.secondaryVolts.length === 2) {
-          add('X3-X4', 'X3', 'X4', c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
+          add('X3-X4', 'X3', 'X4', b0 + 4, c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
         }
         const node: Record<string, number> = {}
-        for (const t of terminalsOf(c)) node[t] = at(c.id, t)
+        const names = terminalsOf(c)
+        for (let j = 0; j < names.length; j++) node[names[j]!] = nodeOf[b0 + j]!
         units.push({ id: c.id, spec: c, windings, node })
         break
       }
       case 'breaker':
-        for (let p = 1; p <= c.poles; p++) poles.push({ device: c.id, a: at(c.id, `L${p}`), b: at(c.id, `T${p}`) })
+        // L1..Lp, then T1..Tp
+        for (let p = 0; p < c.poles; p++) poles.push({ device: c.id, a: nodeOf[b0 + p]!, b: nodeOf[b0 + c.poles + p]! })
         break
       case 'fuse':
-        poles.push({ device: c.id, a: at(c.id, 'a'), b: at(c.id, 'b') })
+        poles.push({ device: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
         break
       case 'load': {
-        const z = typeof c.ohms === 'number' ? new Complex(c.ohms, 0) : new Complex(c.ohms.r, c.ohms.x)
-        loads.push({ id: c.id, a: at(c.id, 'a'), b: at(c.id, 'b'), y: z.inverse() })
+        const y = typeof c.ohms === 'number' ? inverse(c.ohms, 0) : inverse(c.ohms.r, c.ohms.x)
+        loads.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]!, y: new Complex(y.re, y.im) })
         break
       }
       case 'voltmeter':
-        meters.push({ id: c.id, a: at(c.id, 'a'), b: at(c.id, 'b') })
+        meters.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
         break
     }
   }
   const unitById = new Map(units.map((u) => [u.id, u]))
-  const topo: Topology = { circuit, byId, unitById, terminalNode, nodeCount: nodeLabels.length, nodeLabels, units, phases, poles, loads, meters }
+  let terminalNode: Map<string, number> | undefined
+  const topo: Topology = {
+    get terminalNode() {
+      if (!terminalNode) {
+        terminalNode = new Map<string, number>()
+        for (let k = 0; k < terminalNames.length; k++) terminalNode.set(terminalNames[k]!, nodeOf[k]!)
+      }
+      return terminalNode
+    },
+    terminalIndex: index,
+    terminalNames,
+    terminalNodes: nodeOf,
+    circuit,
+    byId,
+    unitById,
+    nodeCount: nodeLabels.length,
+    nodeLabels,
+    units,
+    phases,
+    poles,
+    loads,
+    meters,
+    bankCache: undefined,
+  }
   checkSourceLoops(topo)
   return topo
+}
+
+/** The node of a terminal "ID.T" (-1: ground), or undefined when there is no such terminal. */
+export function nodeOfTerminal(topo: Topology, terminal: string): number | undefined {
+  const k = topo.terminalIndex.get(terminal)
+  return k === undefined ? undefined : topo.terminalNodes[k]
 }
 
 /** Ideal (zero-impedance) supply phases that close a loop have no solution: say which. */
@@ -253,7 +347,7 @@ function checkSourceLoops(topo: Topology) {
   const key = (n: number) => (n < 0 ? topo.nodeCount : n)
   const seen: SupplyPhase[] = []
   for (const ph of topo.phases) {
-    if (ph.z.abs() > 0) continue
+    if (ph.z.re !== 0 || ph.z.im !== 0) continue
     seen.push(ph)
     if (!uf.union(key(ph.star), key(ph.line))) {
       const parts = [...new Set(seen.map((p) => p.supply))]
@@ -316,16 +410,21 @@ export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolu
   }
   const vRe = x.re
   const vIm = x.im
-  const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [vRe[node]!, vIm[node]!])
 
-  const units = topo.units.map((u) => unitSolution(u, V))
+  const units: UnitSolution[] = new Array<UnitSolution>(topo.units.length)
+  for (let k = 0; k < units.length; k++) units[k] = unitSolution(topo.units[k]!, vRe, vIm)
   const phaseCurrent = topo.phases.map((_, k) => ({ re: x.re[n + k]!, im: x.im[n + k]! }))
-  const poleCurrent = topo.poles.map((p) => {
-    if (open.has(p.device)) return { re: 0, im: 0 }
-    const [ar, ai] = V(p.a)
-    const [br, bi] = V(p.b)
-    return { re: (ar - br) * gClosed, im: (ai - bi) * gClosed }
-  })
+  const poleCurrent: { re: number; im: number }[] = new Array(topo.poles.length)
+  for (let k = 0; k < poleCurrent.length; k++) {
+    const p = topo.poles[k]!
+    if (open.has(p.device)) {
+      poleCurrent[k] = { re: 0, im: 0 }
+      continue
+    }
+    const dr = (p.a < 0 ? 0 : vRe[p.a]!) - (p.b < 0 ? 0 : vRe[p.b]!)
+    const di = (p.a < 0 ? 0 : vIm[p.a]!) - (p.b < 0 ? 0 : vIm[p.b]!)
+    poleCurrent[k] = { re: dr * gClosed, im: di * gClosed }
+  }
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(vRe[i]!) || !Number.isFinite(vIm[i]!)) throw singularError(topo, i)
   }
@@ -371,32 +470,36 @@ function stampUnit(sys: ComplexSymmetricSystem, u: Unit) {
   }
 }
 
-function unitSolution(u: Unit, V: (node: number) => [number, number]): UnitSolution {
+function unitSolution(u: Unit, vRe: readonly number[], vIm: readonly number[]): UnitSolution {
   let numRe = 0
   let numIm = 0
   let sRe = 0
   let sIm = 0
-  const drop = u.windings.map((w) => {
-    const [ar, ai] = V(w.a)
-    const [br, bi] = V(w.b)
-    return [ar - br, ai - bi] as const
-  })
-  u.windings.forEach((w, k) => {
-    const [dr, di] = drop[k]!
+  const ws = u.windings
+  const m = ws.length
+  const dropRe: number[] = new Array<number>(m)
+  const dropIm: number[] = new Array<number>(m)
+  for (let k = 0; k < m; k++) {
+    const w = ws[k]!
+    const dr = (w.a < 0 ? 0 : vRe[w.a]!) - (w.b < 0 ? 0 : vRe[w.b]!)
+    const di = (w.a < 0 ? 0 : vIm[w.a]!) - (w.b < 0 ? 0 : vIm[w.b]!)
+    dropRe[k] = dr
+    dropIm[k] = di
     numRe += w.turns * (w.yRe * dr - w.yIm * di)
     numIm += w.turns * (w.yRe * di + w.yIm * dr)
     sRe += w.turns * w.turns * w.yRe
     sIm += w.turns * w.turns * w.yIm
-  })
+  }
   const sm = sRe * sRe + sIm * sIm
   const eRe = (numRe * sRe + numIm * sIm) / sm
   const eIm = (numIm * sRe - numRe * sIm) / sm
-  const current = u.windings.map((w, k) => {
-    const [dr, di] = drop[k]!
-    const ur = dr - w.turns * eRe
-    const ui = di - w.turns * eIm
-    return { re: w.yRe * ur - w.yIm * ui, im: w.yRe * ui + w.yIm * ur }
-  })
+  const current: { re: number; im: number }[] = new Array(m)
+  for (let k = 0; k < m; k++) {
+    const w = ws[k]!
+    const ur = dropRe[k]! - w.turns * eRe
+    const ui = dropIm[k]! - w.turns * eIm
+    current[k] = { re: w.yRe * ur - w.yIm * ui, im: w.yRe * ui + w.yIm * ur }
+  }
   return { id: u.id, eRe, eIm, current }
 }
 

@@ -2,12 +2,12 @@
  * solve(document) → the settled result of circuit-format.md: solve, find the protective
  * device that operates first, open it, solve again, until nothing more operates.
  */
-import { parseCircuit, type CircuitError } from '../circuit/parse'
+import { parseCircuitIndexed, type CircuitError, type TerminalIndex } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
 import { bankProblems } from './bank-check'
 import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
-import { buildTopology, solveStage, type StageSolution, type Topology } from './network'
+import { buildTopology, nodeOfTerminal, solveStage, type StageSolution, type Topology } from './network'
 import { operatingTime, type DeviceKind } from './protection'
 import type { BankSummary, ClosingCheck, DeviceReading, Hazard, ProtectionEvent, Reading, SolveResult } from './types'
 
@@ -53,19 +53,22 @@ export function solve(input: unknown): SolveResult {
 }
 
 export function solveDetailed(input: unknown): SolveDetail {
-  const parsed = parseCircuit(input)
+  const parsed = parseCircuitIndexed(input)
   if (!parsed.ok) throw new CircuitValidationError(parsed.errors)
-  return solveCircuit(parsed.circuit)
+  return solveCircuit(parsed.circuit, parsed.terminals)
 }
 
 function deviceAmps(topo: Topology, sol: StageSolution, open: ReadonlySet<string>): Map<string, number> {
   const amps = new Map<string, number>()
-  topo.poles.forEach((p, k) => {
-    if (open.has(p.device)) return
+  const poles = topo.poles
+  for (let k = 0; k < poles.length; k++) {
+    const p = poles[k]!
+    if (open.has(p.device)) continue
     const c = sol.poleCurrent[k]!
     const i = Math.sqrt(c.re * c.re + c.im * c.im)
-    amps.set(p.device, Math.max(amps.get(p.device) ?? 0, i))
-  })
+    const was = amps.get(p.device)
+    amps.set(p.device, was === undefined ? Math.max(0, i) : Math.max(was, i))
+  }
   return amps
 }
 
@@ -78,8 +81,8 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
 }
 
 /** Solves an already-validated document (defaults filled in). */
-export function solveCircuit(circuit: Circuit): SolveDetail {
-  const topo = buildTopology(circuit)
+export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex): SolveDetail {
+  const topo = buildTopology(circuit, terminals)
   const firstSupply = circuit.components.find((c) => c.kind === 'supply')
   const hz = firstSupply?.kind === 'supply' ? firstSupply.hz : 60
 
@@ -104,10 +107,11 @@ export function solveCircuit(circuit: Circuit): SolveDetail {
   let sol: StageSolution
   let checks: ClosingCheck[] = []
   let stage: ReturnType<typeof stageHazards>
+  let amps: Map<string, number>
   for (;;) {
     sol = solveStage(topo, open)
     initial ??= sol
-    const amps = deviceAmps(topo, sol, open)
+    amps = deviceAmps(topo, sol, open)
     stage = stageHazards(topo, sol, open, amps, hz)
     if (sol === initial) checks = stage.checks
     for (const h of stage.hazards) {
@@ -141,14 +145,16 @@ export function solveCircuit(circuit: Circuit): SolveDetail {
     open.add(next.id)
   }
 
-  const result = buildResult(topo, sol, open, devices, events, hazards, checks, stage.merge, stage.graphs)
+  // the last stage is the settled state: nothing opened after it was solved
+  const result = buildResult(topo, sol, amps, devices, events, hazards, checks, stage.merge, stage.graphs)
   return { topo, initial: initial!, final: sol, open, result }
 }
 
 function buildResult(
   topo: Topology,
   sol: StageSolution,
-  open: Set<string>,
+  /** largest pole current of each conducting fuse and breaker in this state */
+  amps: Map<string, number>,
   devices: Record<string, DeviceReading>,
   events: ProtectionEvent[],
   hazards: Hazard[],
@@ -157,30 +163,51 @@ function buildResult(
   graphs: ReturnType<typeof sideGraphs>,
 ): SolveResult {
   const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [sol.vRe[node]!, sol.vIm[node]!])
-  const vt = (terminal: string) => V(topo.terminalNode.get(terminal)!)
+  const vt = (terminal: string) => V(nodeOfTerminal(topo, terminal)!)
 
   const terminals: Record<string, Reading> = {}
   const { vRe, vIm } = sol
-  for (const [name, node] of topo.terminalNode) terminals[name] = node < 0 ? { volts: 0, degrees: 0 } : reading(vRe[node]!, vIm[node]!)
-  const meters: Record<string, Reading> = {}
-  for (const m of topo.meters) {
-    const [ar, ai] = V(m.a)
-    const [br, bi] = V(m.b)
-    meters[m.id] = reading(ar - br, ai - bi)
+  const names = topo.terminalNames
+  const nodes = topo.terminalNodes
+  // each node's reading once: several terminals share a node
+  const nodeVolts: number[] = new Array<number>(topo.nodeCount)
+  const nodeDegrees: number[] = new Array<number>(topo.nodeCount)
+  for (let node = 0; node < topo.nodeCount; node++) {
+    const r = reading(vRe[node]!, vIm[node]!)
+    nodeVolts[node] = r.volts
+    nodeDegrees[node] = r.degrees
   }
+  for (let k = 0; k < names.length; k++) {
+    const node = nodes[k]!
+    terminals[names[k]!] = node < 0 ? { volts: 0, degrees: 0 } : { volts: nodeVolts[node]!, degrees: nodeDegrees[node]! }
+  }
+  const re = (node: number) => (node < 0 ? 0 : vRe[node]!)
+  const im = (node: number) => (node < 0 ? 0 : vIm[node]!)
+  const meters: Record<string, Reading> = {}
+  for (const m of topo.meters) meters[m.id] = reading(re(m.a) - re(m.b), im(m.a) - im(m.b))
   const windings: SolveResult['windings'] = {}
-  topo.units.forEach((u, ui) => {
-    u.windings.forEach((w, k) => {
-      const [ar, ai] = V(w.a)
-      const [br, bi] = V(w.b)
-      const i = sol.units[ui]!.current[k]!
-      const r = reading(ar - br, ai - bi)
-      windings[`${u.id}.${w.name}`] = { volts: r.volts, degrees: r.degrees, amps: round(Math.sqrt(i.re * i.re + i.im * i.im), 4) }
-    })
-  })
-  for (const [id, amps] of deviceAmps(topo, sol, open)) {
+  for (let ui = 0; ui < topo.units.length; ui++) {
+    const u = topo.units[ui]!
+    const current = sol.units[ui]!.current
+    for (let k = 0; k < u.windings.length; k++) {
+      const w = u.windings[k]!
+      const i = current[k]!
+      const dr = re(w.a) - re(w.b)
+      const di = im(w.a) - im(w.b)
+      const volts = Math.sqrt(dr * dr + di * di)
+      const windingAmps = round(Math.sqrt(i.re * i.re + i.im * i.im), 4)
+      let wr: SolveResult['windings'][string]
+      if (volts < 1e-6) wr = { volts: 0, degrees: 0, amps: windingAmps }
+      else {
+        const deg = round(degreesOf(dr, di), 2)
+        wr = { volts: round(volts, 4), degrees: deg === -180 ? 180 : deg, amps: windingAmps }
+      }
+      windings[`${u.id}.${w.name}`] = wr
+    }
+  }
+  for (const [id, i] of amps) {
     const d = devices[id]!
-    if (d.state === 'closed' || d.state === 'intact') d.amps = round(amps, 4)
+    if (d.state === 'closed' || d.state === 'intact') d.amps = round(i, 4)
   }
 
   const bank: BankSummary = {
@@ -198,7 +225,7 @@ function buildResult(
     const [or, oi] = vt(`${output.id}.a`).map((x, i) => x - vt(`${output.id}.b`)[i]!) as [number, number]
     const [sr, si] = vt(`${supply.id}.A`).map((x, i) => x - vt(`${supply.id}.B`)[i]!) as [number, number]
     const wired = [`${output.id}.a`, `${output.id}.b`].every((t) => {
-      const node = topo.terminalNode.get(t)!
+      const node = nodeOfTerminal(topo, t)!
       return node < 0 || topo.nodeLabels[node]!.length > 1
     })
     if (wired && Math.hypot(or, oi) > 1e-3 * Math.hypot(sr, si) && Math.hypot(sr, si) > 0) {
@@ -232,5 +259,5 @@ function isEnergized(topo: Topology, merge: (n: number) => number): boolean {
   const reached = (node: number) => live.has(merge(node))
   if (topo.units.some((u) => u.windings.some((w) => reached(w.a) || reached(w.b)))) return true
   if (topo.loads.some((l) => reached(l.a) || reached(l.b))) return true
-  return topo.circuit.components.some((c) => c.kind === 'output' && ['a', 'b', 'c', 'n'].some((t) => reached(topo.terminalNode.get(`${c.id}.${t}`)!)))
+  return topo.circuit.components.some((c) => c.kind === 'output' && ['a', 'b', 'c', 'n'].some((t) => reached(nodeOfTerminal(topo, `${c.id}.${t}`)!)))
 }

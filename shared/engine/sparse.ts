@@ -22,31 +22,6 @@ export class SingularSystemError extends Error {
   }
 }
 
-/** Growable pair of Float64Arrays holding complex values. */
-class ComplexBuffer {
-  re: Float64Array
-  im: Float64Array
-  length = 0
-  constructor(capacity: number) {
-    this.re = new Float64Array(Math.max(capacity, 16))
-    this.im = new Float64Array(Math.max(capacity, 16))
-  }
-
-  push(re: number, im: number): number {
-    if (this.length === this.re.length) {
-      const re2 = new Float64Array(this.re.length * 2)
-      const im2 = new Float64Array(this.im.length * 2)
-      re2.set(this.re)
-      im2.set(this.im)
-      this.re = re2
-      this.im = im2
-    }
-    this.re[this.length] = re
-    this.im[this.length] = im
-    return this.length++
-  }
-}
-
 /** Min-heap of (degree, row) pairs encoded as one number; stale entries are skipped on pop. */
 class DegreeHeap {
   private items: number[] = []
@@ -91,27 +66,31 @@ class DegreeHeap {
 /** Below this many unknowns a dense factorisation is faster than the sparse one. */
 export const DENSE_LIMIT = 48
 
-const EMPTY_BUFFER = new ComplexBuffer(0)
-
 export class ComplexSymmetricSystem {
-  /** rows[i] maps a neighbour j to the slot of the off-diagonal entry A[i][j] = A[j][i]. */
-  private rows: Map<number, number>[]
+  /**
+   * The sparse form: adjJ[i] lists the neighbours j of row i (A[i][j] ≠ 0 as stamped, i ≠ j)
+   * in the order they first appeared, adjS[i] the slot of each entry A[i][j] = A[j][i] in
+   * offRe/offIm; offI/offJ name the two rows of each slot.
+   */
+  private adjJ: number[][]
+  private adjS: number[][]
   private diagRe: Vec
   private diagIm: Vec
-  private off: ComplexBuffer
+  private offRe: Vec = []
+  private offIm: Vec = []
   private offI: number[] = []
   private offJ: number[] = []
   readonly rhsRe: Vec
   readonly rhsIm: Vec
 
-  /**
-   * @param size number of unknowns
-   * @param lateFrom rows at or after this index (ideal-source rows) are eliminated last
-   */
   /** a small system is kept dense: A[i][j] at i·size + j */
   private denseRe: Vec | null = null
   private denseIm: Vec | null = null
 
+  /**
+   * @param size number of unknowns
+   * @param lateFrom rows at or after this index (ideal-source rows) are eliminated last
+   */
   constructor(
     readonly size: number,
     private readonly lateFrom = size,
@@ -122,14 +101,17 @@ export class ComplexSymmetricSystem {
       this.denseRe = zeros(size * size)
       this.denseIm = zeros(size * size)
       this.diagRe = this.diagIm = []
-      this.rows = []
-      this.off = EMPTY_BUFFER
+      this.adjJ = this.adjS = []
       return
     }
     this.diagRe = zeros(size)
     this.diagIm = zeros(size)
-    this.rows = Array.from({ length: size }, () => new Map<number, number>())
-    this.off = new ComplexBuffer(size * 4)
+    this.adjJ = new Array<number[]>(size)
+    this.adjS = new Array<number[]>(size)
+    for (let i = 0; i < size; i++) {
+      this.adjJ[i] = []
+      this.adjS[i] = []
+    }
   }
 
   /** Adds (re + j·im) to A[i][j], and to A[j][i] when i ≠ j. */
@@ -150,16 +132,21 @@ export class ComplexSymmetricSystem {
       this.diagIm[i]! += im
       return
     }
-    let slot = this.rows[i]!.get(j)
-    if (slot === undefined) {
-      slot = this.off.push(re, im)
+    const q = this.adjJ[i]!.indexOf(j)
+    if (q < 0) {
+      const slot = this.offRe.length
+      this.offRe.push(re)
+      this.offIm.push(im)
       this.offI.push(i)
       this.offJ.push(j)
-      this.rows[i]!.set(j, slot)
-      this.rows[j]!.set(i, slot)
+      this.adjJ[i]!.push(j)
+      this.adjS[i]!.push(slot)
+      this.adjJ[j]!.push(i)
+      this.adjS[j]!.push(slot)
     } else {
-      this.off.re[slot]! += re
-      this.off.im[slot]! += im
+      const slot = this.adjS[i]![q]!
+      this.offRe[slot]! += re
+      this.offIm[slot]! += im
     }
   }
 
@@ -181,15 +168,15 @@ export class ComplexSymmetricSystem {
   solve(): { re: Vec; im: Vec } {
     if (this.denseRe) return this.solveDense()
     const n = this.size
-    const origCount = this.off.length
-    const origOffRe = this.off.re.slice(0, origCount)
-    const origOffIm = this.off.im.slice(0, origCount)
+    const origCount = this.offRe.length
+    const origOffRe = this.offRe.slice()
+    const origOffIm = this.offIm.slice()
     const origDiagRe = this.diagRe.slice()
     const origDiagIm = this.diagIm.slice()
     const rowScale = zeros(n)
-    for (let i = 0; i < n; i++) rowScale[i] = Math.hypot(this.diagRe[i]!, this.diagIm[i]!)
+    for (let i = 0; i < n; i++) rowScale[i] = Math.sqrt(this.diagRe[i]! * this.diagRe[i]! + this.diagIm[i]! * this.diagIm[i]!)
     for (let s = 0; s < origCount; s++) {
-      const m = Math.hypot(origOffRe[s]!, origOffIm[s]!)
+      const m = Math.sqrt(origOffRe[s]! * origOffRe[s]! + origOffIm[s]! * origOffIm[s]!)
       const i = this.offI[s]!
       const j = this.offJ[s]!
       if (m > rowScale[i]!) rowScale[i] = m
@@ -342,23 +329,29 @@ export class ComplexSymmetricSystem {
 
   private factorise(rowScale: Vec) {
     const n = this.size
-    const rows = this.rows
+    const adjJ = this.adjJ
+    const adjS = this.adjS
     const dRe = this.diagRe
     const dIm = this.diagIm
-    const off = this.off
-    const order = new Int32Array(n)
-    const colStart = new Int32Array(n + 1)
+    const offRe = this.offRe
+    const offIm = this.offIm
+    const order: number[] = new Array<number>(n)
+    const colStart: number[] = new Array<number>(n + 1)
     const lIdx: number[] = []
-    const l = new ComplexBuffer(n * 4)
-    const eliminated = new Uint8Array(n)
+    const lRe: number[] = []
+    const lIm: number[] = []
+    const eliminated: boolean[] = new Array<boolean>(n).fill(false)
+    /** scatter of one row: mark[j] === tag when j is a neighbour, at slot pos[j] */
+    const mark: number[] = new Array<number>(n).fill(-1)
+    const pos: number[] = new Array<number>(n).fill(0)
+    let tag = 0
     const heap = new DegreeHeap()
     const late = new DegreeHeap()
-    for (let i = 0; i < n; i++) (i < this.lateFrom ? heap : late).push(rows[i]!.size, i)
+    for (let i = 0; i < n; i++) (i < this.lateFrom ? heap : late).push(adjJ[i]!.length, i)
 
-    const nbr: number[] = []
-    const nbrSlot: number[] = []
-    const lr: number[] = []
-    const li: number[] = []
+    // the multipliers of one step (a row has fewer than n neighbours)
+    const lr = zeros(n)
+    const li = zeros(n)
     for (let step = 0; step < n; step++) {
       let k = -1
       for (;;) {
@@ -366,13 +359,13 @@ export class ComplexSymmetricSystem {
         if (key === undefined) break
         const row = key % DegreeHeap.SHIFT
         const degree = (key - row) / DegreeHeap.SHIFT
-        if (eliminated[row] || degree !== rows[row]!.size) continue
+        if (eliminated[row] || degree !== adjJ[row]!.length) continue
         k = row
         break
       }
       if (k < 0) throw new SingularSystemError(-1)
       order[step] = k
-      eliminated[k] = 1
+      eliminated[k] = true
       const pr = dRe[k]!
       const pi = dIm[k]!
       const pm = pr * pr + pi * pi
@@ -380,53 +373,74 @@ export class ComplexSymmetricSystem {
       const invRe = pr / pm
       const invIm = -pi / pm
 
-      nbr.length = 0
-      nbrSlot.length = 0
-      lr.length = 0
-      li.length = 0
+      const nbr = adjJ[k]!
+      const nbrSlot = adjS[k]!
+      const m = nbr.length
       colStart[step] = lIdx.length
-      for (const [j, slot] of rows[k]!) {
-        const ar = off.re[slot]!
-        const ai = off.im[slot]!
+      for (let a = 0; a < m; a++) {
+        const slot = nbrSlot[a]!
+        const ar = offRe[slot]!
+        const ai = offIm[slot]!
         const xr = ar * invRe - ai * invIm
         const xi = ar * invIm + ai * invRe
-        nbr.push(j)
-        nbrSlot.push(slot)
-        lr.push(xr)
-        li.push(xi)
-        lIdx.push(j)
-        l.push(xr, xi)
+        lr[a] = xr
+        li[a] = xi
+        lIdx.push(nbr[a]!)
+        lRe.push(xr)
+        lIm.push(xi)
       }
-      const m = nbr.length
-      for (let a = 0; a < m; a++) rows[nbr[a]!]!.delete(k)
+      // k leaves its neighbours' rows (keeping the order of the rest)
+      for (let a = 0; a < m; a++) {
+        const i = nbr[a]!
+        const rj = adjJ[i]!
+        const rs = adjS[i]!
+        const last = rj.length - 1
+        for (let q = rj.indexOf(k); q < last; q++) {
+          rj[q] = rj[q + 1]!
+          rs[q] = rs[q + 1]!
+        }
+        rj.pop()
+        rs.pop()
+      }
       for (let a = 0; a < m; a++) {
         const i = nbr[a]!
         const lar = lr[a]!
         const lai = li[a]!
-        const rowI = rows[i]!
         // diagonal: A_ii -= l_i · A_ki
         const s0 = nbrSlot[a]!
-        dRe[i]! -= lar * off.re[s0]! - lai * off.im[s0]!
-        dIm[i]! -= lar * off.im[s0]! + lai * off.re[s0]!
+        dRe[i]! -= lar * offRe[s0]! - lai * offIm[s0]!
+        dIm[i]! -= lar * offIm[s0]! + lai * offRe[s0]!
+        if (a + 1 >= m) continue
+        const rowJ = adjJ[i]!
+        const rowS = adjS[i]!
+        tag++
+        for (let q = 0; q < rowJ.length; q++) {
+          mark[rowJ[q]!] = tag
+          pos[rowJ[q]!] = rowS[q]!
+        }
         for (let b = a + 1; b < m; b++) {
           const j = nbr[b]!
           const sb = nbrSlot[b]!
-          const ur = lar * off.re[sb]! - lai * off.im[sb]!
-          const ui = lar * off.im[sb]! + lai * off.re[sb]!
-          let slot = rowI.get(j)
-          if (slot === undefined) {
-            slot = off.push(-ur, -ui)
-            rowI.set(j, slot)
-            rows[j]!.set(i, slot)
+          const ur = lar * offRe[sb]! - lai * offIm[sb]!
+          const ui = lar * offIm[sb]! + lai * offRe[sb]!
+          if (mark[j] === tag) {
+            const slot = pos[j]!
+            offRe[slot]! -= ur
+            offIm[slot]! -= ui
           } else {
-            off.re[slot]! -= ur
-            off.im[slot]! -= ui
+            const slot = offRe.length
+            offRe.push(-ur)
+            offIm.push(-ui)
+            rowJ.push(j)
+            rowS.push(slot)
+            adjJ[j]!.push(i)
+            adjS[j]!.push(slot)
           }
         }
       }
       for (let a = 0; a < m; a++) {
         const i = nbr[a]!
-        ;(i < this.lateFrom ? heap : late).push(rows[i]!.size, i)
+        ;(i < this.lateFrom ? heap : late).push(adjJ[i]!.length, i)
       }
     }
     colStart[n] = lIdx.length
@@ -444,8 +458,8 @@ export class ComplexSymmetricSystem {
           if (ykr === 0 && yki === 0) continue
           for (let p = colStart[step]!; p < colStart[step + 1]!; p++) {
             const i = lIdx[p]!
-            yRe[i]! -= l.re[p]! * ykr - l.im[p]! * yki
-            yIm[i]! -= l.re[p]! * yki + l.im[p]! * ykr
+            yRe[i]! -= lRe[p]! * ykr - lIm[p]! * yki
+            yIm[i]! -= lRe[p]! * yki + lIm[p]! * ykr
           }
         }
         for (let k = 0; k < n; k++) {
@@ -463,8 +477,8 @@ export class ComplexSymmetricSystem {
           let si = yIm[k]!
           for (let p = colStart[step]!; p < colStart[step + 1]!; p++) {
             const i = lIdx[p]!
-            sr -= l.re[p]! * yRe[i]! - l.im[p]! * yIm[i]!
-            si -= l.re[p]! * yIm[i]! + l.im[p]! * yRe[i]!
+            sr -= lRe[p]! * yRe[i]! - lIm[p]! * yIm[i]!
+            si -= lRe[p]! * yIm[i]! + lIm[p]! * yRe[i]!
           }
           yRe[k] = sr
           yIm[k] = si

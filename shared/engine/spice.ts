@@ -9,6 +9,7 @@
  * 2 × 10⁻⁵ per unit, both far below the engine's 0.5 % agreement. A 0 V source in each
  * winding measures its current.
  */
+import Complex from 'complex.js'
 import { parseCircuit } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
 import { CircuitValidationError } from './solve'
@@ -73,8 +74,8 @@ function writeNetlist(circuit: Circuit, options: SpiceOptions): { netlist: strin
   for (const ph of topo.phases) {
     const name = `${safe(ph.supply)}_${ph.phase}`
     const deg = (Math.atan2(ph.emf.im, ph.emf.re) * 180) / Math.PI
-    const emf = `DC 0 AC ${num(ph.emf.abs())} ${num(deg)}`
-    if (ph.z.abs() === 0) lines.push(`VS_${name} ${node(ph.line)} ${node(ph.star)} ${emf}`)
+    const emf = `DC 0 AC ${num(new Complex(ph.emf.re, ph.emf.im).abs())} ${num(deg)}`
+    if (ph.z.re === 0 && ph.z.im === 0) lines.push(`VS_${name} ${node(ph.line)} ${node(ph.star)} ${emf}`)
     else {
       const inner = `s_${name}`
       lines.push(`VS_${name} ${inner} ${node(ph.star)} ${emf}`)
