@@ -11,6 +11,8 @@
 // /api/health's at the same connection count in the same run.
 //   npm run load -- --json          one JSON object instead of the table
 //   npm run load -- --duration 5    seconds per case (10 unless told)
+//   npm run load -- --only bank     only that route (health is always measured, for the ratio)
+//   PROFILE_SERVER=DIR npm run load  the server writes a V8 CPU profile into DIR when it stops
 import { mkdtempSync, rmSync } from 'node:fs'
 import { loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -23,6 +25,8 @@ const json = args.includes('--json')
 const durationArg = args.indexOf('--duration')
 const duration = durationArg >= 0 ? Number(args[durationArg + 1]) : 10
 if (!(duration > 0)) throw new Error('--duration takes a number of seconds')
+const onlyArg = args.indexOf('--only')
+const only = onlyArg >= 0 ? args[onlyArg + 1] : null
 const log = json ? () => {} : console.log
 const CONNECTIONS = [50, 200]
 // the route's own limit is 30 probes per 30 s per attempt; the benchmark probes one attempt
@@ -96,6 +100,7 @@ try {
       NUXT_PROBE_LIMIT_WINDOW_SECONDS: '1',
     },
     logFile: join(scratch, 'server.log'),
+    nodeArgs: process.env.PROFILE_SERVER ? ['--cpu-prof', `--cpu-prof-dir=${process.env.PROFILE_SERVER}`] : [],
   })
   const base = server.baseURL
   // the fixtures: the demo student's bank, and a fault hunt (no probe budget) published to the demo class
@@ -115,12 +120,14 @@ try {
   const check = (await call(base, `/api/attempts/${attemptRow.id}/probe`, { method: 'POST', cookie: student, body: JSON.parse(probeBody) })).body
   if (!(check.volts > 400)) throw new Error(`the probe read ${check.volts} V, not the reversed unit's ≈ 480 V`)
 
-  const cases = [
+  const allCases = [
     { route: 'health', title: 'GET /api/health', options: { url: `${base}/api/health` } },
     { route: 'bank', title: `GET /api/banks/${bank.id} (signed in)`, options: { url: `${base}/api/banks/${bank.id}`, headers: { cookie: student, accept: 'application/json' } } },
     { route: 'solve', title: 'POST /api/solve (3-unit closed delta)', options: { url: `${base}/api/solve`, method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(closedDelta) } },
     { route: 'probe', title: `POST /api/attempts/${attemptRow.id}/probe`, options: { url: `${base}/api/attempts/${attemptRow.id}/probe`, method: 'POST', headers: { cookie: student, 'content-type': 'application/json' }, body: probeBody } },
   ]
+  if (only && !allCases.some(c => c.route === only)) throw new Error(`--only takes one of ${allCases.map(c => c.route).join(', ')}`)
+  const cases = allCases.filter(c => !only || c.route === only || c.route === 'health')
 
   // warm up (JIT, pool connections): 2 s of each case at 10 connections, not recorded
   log(`▸ Warm-up, then ${duration} s per case at ${CONNECTIONS.join(' and ')} connections`)
@@ -151,7 +158,7 @@ try {
     const health = results.find(h => h.route === 'health' && h.connections === row.connections)
     row.shareOfHealth = health.requestsPerSecond ? row.requestsPerSecond / health.requestsPerSecond : null
   }
-  const at50 = route => results.find(r => r.route === route && r.connections === 50)
+  const at50 = route => results.find(r => r.route === route && r.connections === 50) ?? { shareOfHealth: Number.NaN, p99: Number.NaN }
   const targets = {
     bankShare: { target: `≥ ${TARGETS.bank.share * 100} % of health`, value: at50('bank').shareOfHealth, met: at50('bank').shareOfHealth >= TARGETS.bank.share },
     bankP99: { target: `p99 ≤ ${TARGETS.bank.p99} ms`, value: at50('bank').p99, met: at50('bank').p99 <= TARGETS.bank.p99 },
