@@ -9,7 +9,7 @@
 //   POST /api/attempts/ID/probe a fault hunt's attempts, energized, the closing check's meter:
 //                               50 students' attempts spread over the connections, and one
 //                               attempt probed by every connection (its row is the bottleneck)
-// and prints requests/s, p50, p99, errors, non-2xx, and each route's rate as a share of
+// and prints requests/s, p50, p99, errors (timeouts among them), non-2xx, and each route's rate as a share of
 // /api/health's at the same connection count in the same run.
 //   npm run load -- --json          one JSON object instead of the table
 //   npm run load -- --duration 5    seconds per case (10 unless told)
@@ -170,7 +170,9 @@ try {
         requestsPerSecond: r.requests.average,
         p50: r.latency.p50,
         p99: r.latency.p99,
-        errors: r.errors + r.timeouts,
+        // autocannon counts a timeout as an error too
+        errors: r.errors,
+        timeouts: r.timeouts,
         non2xx: r.non2xx,
       })
       log(`  ${c.title} at ${connections}: ${r.requests.average} req/s`)
