@@ -83,9 +83,10 @@ export function sessionPassword() {
 
 /**
  * Start the built server (`node .output/server/index.mjs`) and wait until /api/health
- * answers. `logFile` takes its output; without it, output goes to our terminal.
+ * answers. `logFile` takes its output; without it, output goes to our terminal. `nodeArgs` go
+ * to node before the entry (e.g. `--cpu-prof`).
  */
-export async function startServer({ port, env, logFile, timeoutMs = 60_000 }) {
+export async function startServer({ port, env, logFile, timeoutMs = 60_000, nodeArgs = [] }) {
   let stdio = 'inherit'
   let logStream
   if (logFile) {
@@ -93,7 +94,7 @@ export async function startServer({ port, env, logFile, timeoutMs = 60_000 }) {
     await new Promise(resolveOpen => logStream.once('open', resolveOpen))
     stdio = ['ignore', logStream, logStream]
   }
-  const child = spawn(process.execPath, [serverEntry], {
+  const child = spawn(process.execPath, [...nodeArgs, serverEntry], {
     cwd: root,
     stdio,
     env: { ...process.env, ...env, PORT: String(port), NITRO_PORT: String(port) },
