@@ -59,7 +59,7 @@ function spec(input: SiteCheckInput, extra: Partial<BankSpec> = {}): BankSpec {
 /** Primary fuses by NEC Table 450.3(B), primary protection only, for the bank's rating. */
 export function benchFuseAmps(input: SiteCheckInput): number {
   const kva = bankKva(ratingConnection(input.connection), input.units.map((u) => u.kva))
-  return primaryOnlyProtection(fullLoadAmps(kva, input.supply.lineVolts)).maxDeviceAmps ?? STANDARD_AMPS[STANDARD_AMPS.length - 1]
+  return primaryOnlyProtection(fullLoadAmps(kva, input.supply.lineVolts)).maxDeviceAmps ?? STANDARD_AMPS.at(-1)!
 }
 
 /** The bank as it opens on the Bench: de-energized, fused, the delta's last corner open with MC across it. */

@@ -101,3 +101,9 @@ export function exampleSiteCheck(): SiteCheckInput {
     loads: { threePhaseKva: 40, powerFactor: 0.85, lightingKva: 20 },
   }
 }
+
+/** Who may use the Site check (product.md: the practitioner; instructors plan lab banks with it too). */
+export const SITE_CHECK_ROLES = ['practitioner', 'instructor'] as const
+
+/** A saved Site check: its bank document is the Bench document plus the inputs, under this key. */
+export const SITE_CHECK_KEY = 'siteCheck'

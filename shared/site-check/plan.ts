@@ -11,6 +11,7 @@ import { bankRating, bankKva, OPEN_DELTA_OF_CLOSED, OPEN_DELTA_OF_TWO_UNITS, typ
 import type { Hazard, SolveResult } from '../engine/types'
 import { benchDocument, hasDeltaSecondary, hasNeutral, loadedDocument, noLoadDocument, ratingConnection } from './build'
 import type { SiteCheckInput } from './inputs'
+import { drawBank, type BankDrawing } from './drawing'
 import { smallestStandard } from './sizes'
 import { siteWarnings, type SiteWarning } from './warnings'
 
@@ -61,6 +62,8 @@ export interface SitePlan {
   input: SiteCheckInput
   /** the document that opens on the Bench */
   document: CircuitInput
+  /** the bank drawing of the sheet (the bank with its corner open, as first energized) */
+  drawing: BankDrawing
   secondaryLineVolts: number
   secondaryNeutralVolts: number | null
   testPoints: TestPoint[]
@@ -234,6 +237,11 @@ export function planSiteCheck(input: SiteCheckInput): SitePlan {
   const plan: Omit<SitePlan, 'warnings'> = {
     input,
     document: benchDocument(input),
+    drawing: drawBank(noLoadDocument(input, { open: true }), {
+      highLeg: input.connection === 'high-leg-delta' ? 'b' : undefined,
+      supplyLabel: `supply ${input.supply.lineVolts} V`,
+      outputLabel: `output ${round(secondaryLineVolts)} V${secondaryNeutralVolts ? ` / ${round(secondaryNeutralVolts)} V to n` : ''}`,
+    }),
     secondaryLineVolts: round(secondaryLineVolts),
     secondaryNeutralVolts: secondaryNeutralVolts === null ? null : round(secondaryNeutralVolts),
     testPoints,
