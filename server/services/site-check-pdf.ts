@@ -179,10 +179,10 @@ export async function siteCheckPdf(plan: SitePlan, meta: { preparedBy?: string; 
   w.heading('The bank')
   drawBankOn(w, plan.drawing)
   for (const [label, value] of sheetSummary(plan)) {
-    const lines = w.wrap(value, fonts.text, 8.5, PAGE.width - 2 * MARGIN - 150)
+    const lines = w.wrap(value, fonts.text, 8.5, PAGE.width - 2 * MARGIN - 180)
     w.need(lines.length * 10.5 + 2)
     w.page.drawText(safe(label), { x: MARGIN, y: w.y - 10.5, size: 8.5, font: fonts.bold, color: INK })
-    lines.forEach((line, i) => w.page.drawText(line, { x: MARGIN + 150, y: w.y - 10.5 * (i + 1), size: 8.5, font: fonts.text, color: INK }))
+    lines.forEach((line, i) => w.page.drawText(line, { x: MARGIN + 180, y: w.y - 10.5 * (i + 1), size: 8.5, font: fonts.text, color: INK }))
     w.y -= lines.length * 10.5 + 2
   }
 
