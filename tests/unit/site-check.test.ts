@@ -1,7 +1,7 @@
 // The Site check plan against published values and hand calculations. Every row names its
 // source; "from memory" marks a value recalled rather than read from the document here.
 import { describe, expect, it } from 'vitest'
-import { bankKva, fullLoadAmps, OPEN_DELTA_OF_CLOSED, OPEN_DELTA_OF_TWO_UNITS, primaryAndSecondaryProtection, primaryOnlyProtection, solve } from '#shared/engine'
+import { bankKva, expectedReadings, fullLoadAmps, OPEN_DELTA_OF_CLOSED, OPEN_DELTA_OF_TWO_UNITS, primaryAndSecondaryProtection, primaryOnlyProtection, solve } from '#shared/engine'
 import { parseCircuit } from '#shared/circuit/parse'
 import {
   exampleSiteCheck,
@@ -89,6 +89,18 @@ describe('expected readings at every test point', () => {
     expect(doc.components.some((c) => c.id === 'MC')).toBe(true)
     expect(doc.layout).toBeDefined()
     expect(solve(plan.document).energized).toBe(false)
+  })
+
+  it('on the Bench, the ratio\'s prediction for that document agrees with the plan: the high leg is b–n even with the corner open', () => {
+    const plan = planSiteCheck(exampleSiteCheck())
+    const parsed = parseCircuit(plan.document)
+    if (!parsed.ok) throw new Error(JSON.stringify(parsed.errors))
+    const energized = { ...parsed.circuit, components: parsed.circuit.components.map((c) => (c.kind === 'breaker' ? { ...c, closed: true } : c)) }
+    const expected = expectedReadings(energized, solve(energized))
+    within(expected.Mbn!.volts, 207.8, 0.001)
+    within(expected.Man!.volts, 120, 0.001)
+    within(expected.Mcn!.volts, 120, 0.001)
+    expect(expected.MC!.volts).toBe(0)
   })
 })
 
