@@ -25,9 +25,28 @@ const FAINT = rgb(0.45, 0.48, 0.52)
 const CAUTION = rgb(0.6, 0.36, 0)
 const DANGER = rgb(0.7, 0.1, 0.1)
 
-// the standard fonts encode WinAnsi only: spell out the few signs it lacks
-const SIGNS: Record<string, string> = { '√': 'sqrt', '∠': 'at', 'Ω': 'ohm', '≈': '~', '→': '->', '−': '-' }
-const safe = (text: string) => text.replace(/[√∠Ω≈→−]/g, (c) => SIGNS[c] ?? '')
+// The standard fonts encode WinAnsi (Windows-1252) only: spell out the few signs of ours it
+// lacks, take the base letter of an accented one it lacks (Ł → L), and put ? for anything else,
+// so a name in any script still makes a PDF.
+const SIGNS: Record<string, string> = { '√': 'sqrt', '∠': 'at', 'Ω': 'ohm', '≈': '~', '→': '->', '−': '-', 'Ł': 'L', 'ł': 'l', 'Đ': 'D', 'đ': 'd' }
+const WIN_ANSI_EXTRA = '€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ'
+const encodable = (c: string) => {
+  const p = c.codePointAt(0)!
+  return (p >= 0x20 && p <= 0x7e) || (p >= 0xa0 && p <= 0xff) || WIN_ANSI_EXTRA.includes(c)
+}
+export function safe(text: string): string {
+  let out = ''
+  for (const c of text) {
+    if (encodable(c)) out += c
+    else if (SIGNS[c]) out += SIGNS[c]
+    else if (c === '\n' || c === '\t') out += ' '
+    else {
+      const base = c.normalize('NFD')[0] ?? ''
+      out += base && base !== c && encodable(base) ? base : '?'
+    }
+  }
+  return out
+}
 
 interface Fonts { text: PDFFont; bold: PDFFont; mono: PDFFont }
 

@@ -1,8 +1,21 @@
 /** Site checks: planned on the server for the PDF, saved with the user's banks (kind 'site-check'). */
-import { planSiteCheck, SITE_CHECK_KEY, type SiteCheckInput } from '#shared/site-check'
+import { planSiteCheck as plan, SITE_CHECK_KEY, type SiteCheckInput } from '#shared/site-check'
 import type { User } from '../db/schema'
 import { createBank } from './banks'
 import { siteCheckPdf } from './site-check-pdf'
+
+/** The plan, or 422 when the engine finds no solution for the bank (never a 5xx for an input the schema let through). */
+export function planSiteCheck(input: SiteCheckInput) {
+  try {
+    return plan(input)
+  } catch (e) {
+    throw createError({
+      statusCode: 422,
+      statusMessage: 'This bank has no solution',
+      data: { errors: [{ path: '(body)', message: `the engine could not solve this bank: ${(e as Error).message}` }] },
+    })
+  }
+}
 
 /**
  * Saves the site check as a bank: the document is the one that opens on the Bench (a valid

@@ -80,8 +80,13 @@ export function noLoadDocument(input: SiteCheckInput, options: { open?: boolean;
  * NEC 240.6(A) size) stand in the primary lines as ammeters: the result's devices give the
  * primary line currents, and nothing operates.
  */
+/** Loads below this are none at all (a load of a few VA on a bank is lost in its magnetising current). */
+const NEGLIGIBLE_KVA = 0.01
+
 export function loadedDocument(input: SiteCheckInput, lineVolts: number, neutralVolts: number | null): CircuitInput {
-  const { threePhaseKva, powerFactor, lightingKva } = input.loads
+  const { powerFactor } = input.loads
+  const threePhaseKva = input.loads.threePhaseKva >= NEGLIGIBLE_KVA ? input.loads.threePhaseKva : 0
+  const lightingKva = input.loads.lightingKva >= NEGLIGIBLE_KVA ? input.loads.lightingKva : 0
   return buildBank(
     spec(input, {
       fuseAmps: 6000,

@@ -22,17 +22,18 @@ export const unitsFor = (connection: SiteConnection) => (connection === 'open-de
 /** NEC Table 450.3(B) covers transformers of 1000 V and less, and so does the Site check. */
 export const MAX_VOLTS = 1000
 
-const positive = (what: string, max: number) =>
+const positive = (what: string, min: number, max: number) =>
   z
     .number({ error: `${what} must be a number` })
     .positive({ error: `${what} must be greater than 0` })
+    .min(min, { error: `${what} must be at least ${min}` })
     .max(max, { error: `${what} must be at most ${max}` })
 
 export const SiteUnitSchema = z.object({
-  kva: positive('kVA', 2500),
-  primaryVolts: positive('primary volts', MAX_VOLTS),
+  kva: positive('kVA', 0.5, 2500),
+  primaryVolts: positive('primary volts', 100, MAX_VOLTS),
   secondaryVolts: z
-    .array(positive('coil volts', MAX_VOLTS), { error: 'coil volts must be a list' })
+    .array(positive('coil volts', 12, MAX_VOLTS), { error: 'coil volts must be a list' })
     .min(1, { error: 'a unit has one or two secondary coils' })
     .max(2, { error: 'a unit has one or two secondary coils' }),
   impedancePercent: z

@@ -2,7 +2,7 @@
 // reading is on the row of its meter leads, with the closing-check step and the cautions.
 import { describe, expect, it } from 'vitest'
 import { CLOSING_STEP, LOCAL_CODE_FIRST, SHEET_CAUTIONS, exampleSiteCheck, planSiteCheck, SiteCheckInputSchema, volts } from '#shared/site-check'
-import { siteCheckPdf } from '../../server/services/site-check-pdf'
+import { safe, siteCheckPdf } from '../../server/services/site-check-pdf'
 import { pdfPages, pdfText } from '../support/pdf'
 
 const oneLine = (text: string) => text.replace(/\s+/g, ' ')
@@ -60,5 +60,22 @@ describe.each([
       expect(flat).toContain('NEC 110.15')
       expect(flat).toContain('NEC 408.3(E)')
     }
+  })
+})
+
+describe('text outside the standard fonts’ WinAnsi set', () => {
+  it.each([
+    ['Łódź', 'Lodz'.replace('o', 'ó')],
+    ['北京 bank', '?? bank'],
+    ['a\u0000b', 'a?b'],
+    ['√3 × 120 V ∠ 30°', 'sqrt3 × 120 V at 30°'],
+  ])('%s is written as %s', (text, written) => {
+    expect(safe(text)).toBe(written)
+  })
+  it('a site check named in another script still makes a PDF with every reading', async () => {
+    const plan = planSiteCheck({ ...exampleSiteCheck(), name: 'Łódź 北京 warsztat' })
+    const text = pdfText(await siteCheckPdf(plan))
+    expect(text).toContain('Lódz')
+    for (const p of plan.testPoints) expect(text).toContain(`${p.leads[0]} to ${p.leads[1]}`)
   })
 })
