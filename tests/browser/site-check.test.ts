@@ -3,7 +3,7 @@
 // built bank on the Bench, and opens the printable sheet.
 import { readFileSync, statSync } from 'node:fs'
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { pdfText, renderFirstPage } from '../support/pdf'
 import { launch, resultsDir, screenshot, type Browser } from './helpers'
@@ -18,6 +18,10 @@ beforeAll(async () => {
 })
 afterAll(async () => {
   await browser?.close()
+})
+// a failed step leaves a picture of the page behind in test-results/
+afterEach(async (context) => {
+  if (context.task.result?.state === 'fail') await screenshot(page, `site-check-failed-${context.task.name.slice(0, 30).replace(/\W+/g, '-')}`).catch(() => undefined)
 })
 
 /** Every test point row as the page shows it: step → [leads, expected]. */
@@ -42,7 +46,7 @@ describe('Site check in the browser', () => {
     await page.getByLabel('E-mail').fill('practitioner@phaseloom.test')
     await page.getByLabel('Password').fill('phaseloom-demo')
     await page.getByLabel('Password').press('Enter')
-    await page.waitForURL(/\/site-check$/)
+    await page.waitForURL(url => url.pathname === '/site-check')
     await page.getByTestId('site-check-form').waitFor()
 
     await page.getByLabel('Name').fill(name)
