@@ -17,6 +17,9 @@ const { seedDemo } = await import('./seed.mjs')
 const { startMailCatcher } = await import('./mail-catcher.mjs')
 
 ensureAptPackage({ command: 'ngspice', pkg: 'ngspice' })
+// pdftotext and pdftoppm read the Site check's PDF back in the tests
+ensureAptPackage({ command: 'pdftoppm', pkg: 'poppler-utils' })
+ensureAptPackage({ command: 'pdftotext', pkg: 'poppler-utils' })
 if (!existsSync('/usr/bin/chromium')) ensureAptPackage({ command: 'chromium', pkg: 'chromium' })
 
 const scratch = mkdtempSync(join(tmpdir(), 'phaseloom-test-'))

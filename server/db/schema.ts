@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
 import { bigint, boolean, char, datetime, decimal, index, int, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { ROLES } from '../../shared/schemas/account'
+import { BANK_KINDS } from '../../shared/schemas/banks'
 import type { Fault } from '../../shared/hunts/faults'
 import { jsonDocument } from './json-document'
 
@@ -39,6 +40,8 @@ export const banks = mysqlTable('banks', {
   name: varchar('name', { length: 160 }).notNull(),
   document: jsonDocument<Record<string, unknown>>('document').notNull(),
   version: int('version').notNull().default(1),
+  // 'site-check': saved from /site-check; its document also carries the planner's inputs
+  kind: mysqlEnum('kind', BANK_KINDS).notNull().default('bank'),
   deletedAt: datetime('deleted_at', { mode: 'date', fsp: 3 }),
   // A read-only link's token (GET /api/shared/[token]); null when the bank is not shared.
   // Kept as is, not hashed, so the owner can copy the link again.

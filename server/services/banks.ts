@@ -1,7 +1,7 @@
 /** Saved banks: every query names the owner in its WHERE clause. */
 import { and, asc, count, desc, eq, gt, isNotNull, isNull, like, sql } from 'drizzle-orm'
 import type { z } from 'zod'
-import type { BankListQuerySchema, BankSummary, Paged } from '#shared/schemas/banks'
+import type { BankKind, BankListQuerySchema, BankSummary, Paged } from '#shared/schemas/banks'
 import { BANK_NAME_MAX } from '#shared/schemas/banks'
 import type { Bank, User } from '../db/schema'
 
@@ -24,10 +24,11 @@ export function shareUrlOf(token: string): string {
   return publicUrl(`/shared/${token}`)
 }
 
-function summary(bank: Pick<Bank, 'id' | 'name' | 'version' | 'createdAt' | 'updatedAt' | 'deletedAt' | 'shareToken'>): BankSummary {
+function summary(bank: Pick<Bank, 'id' | 'name' | 'kind' | 'version' | 'createdAt' | 'updatedAt' | 'deletedAt' | 'shareToken'>): BankSummary {
   return {
     id: bank.id,
     name: bank.name,
+    kind: bank.kind,
     version: bank.version,
     createdAt: bank.createdAt.toISOString(),
     updatedAt: bank.updatedAt.toISOString(),
@@ -50,7 +51,7 @@ export async function listBanks(owner: User, query: ListQuery): Promise<Paged<Ba
   const db = useDB()
   const [rows, [total]] = await Promise.all([
     db.select({
-      id: banks.id, name: banks.name, version: banks.version, createdAt: banks.createdAt,
+      id: banks.id, name: banks.name, kind: banks.kind, version: banks.version, createdAt: banks.createdAt,
       updatedAt: banks.updatedAt, deletedAt: banks.deletedAt, shareToken: banks.shareToken,
     }).from(banks).where(where)
       .orderBy(direction(column), direction(banks.id))
@@ -64,6 +65,7 @@ export function bankDetail(bank: Bank) {
   return {
     id: bank.id,
     name: bank.name,
+    kind: bank.kind,
     document: bank.document,
     version: bank.version,
     createdAt: bank.createdAt.toISOString(),
@@ -71,8 +73,8 @@ export function bankDetail(bank: Bank) {
   }
 }
 
-export async function createBank(owner: User, name: string, document: Record<string, unknown>) {
-  const [row] = await useDB().insert(banks).values({ ownerId: owner.id, name, document }).$returningId()
+export async function createBank(owner: User, name: string, document: Record<string, unknown>, kind: BankKind = 'bank') {
+  const [row] = await useDB().insert(banks).values({ ownerId: owner.id, name, document, kind }).$returningId()
   return { id: row!.id, version: 1 }
 }
 
@@ -120,7 +122,7 @@ export async function restoreBank(owner: User, id: number) {
 export async function duplicateBank(owner: User, id: number) {
   const bank = await requireBankOwner(owner, id)
   const name = `Copy of ${bank.name}`.slice(0, BANK_NAME_MAX)
-  return createBank(owner, name, bank.document)
+  return createBank(owner, name, bank.document, bank.kind)
 }
 
 /** Gives the bank a read-only link (the same one again if it has one). */

@@ -131,7 +131,7 @@ function nominalSecondaryLine(circuit: Circuit, result: SolveResult, supplyLineV
     case 'delta':
     case 'open-delta': {
       // a centre-tapped unit makes a high-leg delta: the leg opposite it reads line × √3 / 2
-      const tapped = result.bank.coils === 'series' ? highLegOf(circuit) : null
+      const tapped = result.bank.coils === 'series' ? highLegOf(circuit, result) : null
       return { line: winding, toNeutral: tapped ? winding / 2 : null, highLeg: tapped, basis: 'delta: line = coil voltage × ratio' }
     }
     case 'wye':
@@ -144,8 +144,12 @@ function nominalSecondaryLine(circuit: Circuit, result: SolveResult, supplyLineV
   }
 }
 
-/** The output line not adjacent to the centre-tapped (lighting) unit of a four-wire delta. */
-function highLegOf(circuit: Circuit): string | null {
+/**
+ * The output line not adjacent to the centre-tapped (lighting) unit of a four-wire delta.
+ * With the delta's last corner open, an end of the lighting unit may sit at the gap: the
+ * terminal across the gap stands for it.
+ */
+function highLegOf(circuit: Circuit, result: SolveResult): string | null {
   const topo = buildTopology(circuit)
   const output = circuit.components.find((c) => c.kind === 'output')
   if (!output) return null
@@ -156,6 +160,11 @@ function highLegOf(circuit: Circuit): string | null {
     const tap = topo.terminalNode.get(`${u.id}.X2`)
     if (tap !== n || topo.terminalNode.get(`${u.id}.X3`) !== n) continue
     const ends = [topo.terminalNode.get(`${u.id}.X1`), topo.terminalNode.get(`${u.id}.X4`)]
+    for (const check of result.closingChecks) {
+      const [x, y] = check.between.map((t) => topo.terminalNode.get(t))
+      if (ends.includes(x)) ends.push(y)
+      if (ends.includes(y)) ends.push(x)
+    }
     const line = ['a', 'b', 'c'].find((t) => !ends.includes(topo.terminalNode.get(`${output.id}.${t}`)))
     return line ?? null
   }

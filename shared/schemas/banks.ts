@@ -3,6 +3,10 @@ import { z } from 'zod'
 import { CircuitSchema } from '../circuit/parse'
 
 export const BANK_NAME_MAX = 120
+
+/** What a saved bank is: one drawn on the Bench, or a Site check (shown as "site check" in My banks). */
+export const BANK_KINDS = ['bank', 'site-check'] as const
+export type BankKind = (typeof BANK_KINDS)[number]
 const bankName = z.string({ error: 'name is required' }).trim().min(1, { error: 'give the bank a name' }).max(BANK_NAME_MAX, { error: `name is too long (${BANK_NAME_MAX} characters at most)` })
 const version = z.number({ error: 'version is required: send the version you loaded' }).int({ error: 'version must be a whole number' }).positive({ error: 'version must be a whole number' })
 
@@ -23,6 +27,7 @@ export const BankListQuerySchema = z.object({
 export interface BankSummary {
   id: number
   name: string
+  kind: BankKind
   version: number
   createdAt: string
   updatedAt: string

@@ -86,6 +86,7 @@ const routes: { method: string, path: () => string, who: Who, keys: string[] }[]
   { method: 'PATCH', path: () => `/api/lab-sheets/${ids.sheet}`, who: 'student', keys: ['version', 'title', 'measured', 'supplyVolts', 'rescale', 'notes', 'classId'] },
   { method: 'POST', path: () => `/api/lab-sheets/${ids.sheet}/review`, who: 'instructor', keys: ['verdict', 'comment'] },
   { method: 'POST', path: () => `/api/attempts/${ids.attempt}/submit`, who: 'student', keys: ['diagnosis', 'document'] },
+  ...['/api/site-checks', '/api/site-checks/plan', '/api/site-checks/pdf'].map(path => ({ method: 'POST', path: () => path, who: 'instructor' as const, keys: ['name', 'supply', 'connection', 'coils', 'units', 'loads'] })),
 ]
 
 const people = () => ({ student, instructor, admin })

@@ -7,7 +7,7 @@ import { flushPromises } from '@vue/test-utils'
 import { createError, readBody } from 'h3'
 import HuntsForm from '~/components/hunts/HuntsForm.vue'
 
-const bank = { id: 41, name: 'Bay 2 delta', version: 1, createdAt: '2027-01-01T00:00:00.000Z', updatedAt: '2027-01-01T00:00:00.000Z', deletedAt: null, shared: false, shareUrl: null }
+const bank = { id: 41, name: 'Bay 2 delta', kind: 'bank' as const, version: 1, createdAt: '2027-01-01T00:00:00.000Z', updatedAt: '2027-01-01T00:00:00.000Z', deletedAt: null, shared: false, shareUrl: null }
 const document = {
   format: 'phaseloom.circuit',
   version: 1,

@@ -1,0 +1,1 @@
+ALTER TABLE `banks` ADD `kind` enum('bank','site-check') DEFAULT 'bank' NOT NULL;
