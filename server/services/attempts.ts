@@ -5,7 +5,7 @@
 import { createHash } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { and, asc, eq, isNull, or, sql } from 'drizzle-orm'
-import type { Circuit } from '#shared/circuit/schema'
+import { terminalsOf, type Circuit } from '#shared/circuit/schema'
 import { CircuitSolveError, solveCircuit, degreesOf } from '#shared/engine'
 import type { SolveResult } from '#shared/engine'
 import { applyFaults, DIAGNOSIS_OF, type Diagnosis } from '#shared/hunts/faults'
@@ -167,6 +167,8 @@ interface Settled {
   document: Record<string, unknown>
   between(from: string, to: string): { volts: number, degrees: number }
   unsafe: boolean
+  /** every terminal of the student's bank, as labelled */
+  terminals: Set<string>
 }
 
 /** Solves the student's bank with the hunt's faults in it. */
@@ -208,6 +210,7 @@ function settle(hunt: Hunt, raw: Record<string, unknown>): Settled {
       if (volts < 1e-6) return { volts: 0, degrees: 0 }
       return { volts: Math.round(volts * 1e4) / 1e4, degrees: Math.round(degreesOf(re, im) * 100) / 100 }
     },
+    terminals: new Set(parsed.circuit.components.flatMap(c => terminalsOf(c).map(t => `${c.id}.${t}`))),
     unsafe: result.energized && result.hazards.some(h =>
       h.code === 'fault-current' || ((h.code === 'reversed-winding' || h.code === 'loop-voltage') && !h.onClosing)),
   }
@@ -260,29 +263,15 @@ export async function energize(student: User, id: number, document: Record<strin
   return { ...visibleOutcome(settled, settled.document), ...happened, ...counters(now, hunt) }
 }
 
-function terminalErrors(document: Record<string, unknown>, from: string, to: string) {
-  const parsed = parseCircuit(document)
-  if (!parsed.ok) return []
-  const ids = new Set(parsed.circuit.components.map(c => c.id))
-  const errors: { path: string, message: string }[] = []
-  for (const [path, t] of [['from', from], ['to', to]] as const) {
-    const [part] = t.split('.')
-    if (!ids.has(part!)) errors.push({ path, message: `"${t}" is not a terminal of this bank` })
-  }
-  return errors
-}
-
 export async function probe(event: H3Event, student: User, id: number, body: { document: Record<string, unknown>, from: string, to: string }) {
   const { attempt, hunt } = await openAttempt(student, id)
   await consumeProbe(event, attempt.id)
   if (hunt.probeBudget !== null && attempt.probesUsed >= hunt.probeBudget) {
     throw createError({ statusCode: 409, statusMessage: `The probe budget of ${hunt.probeBudget} is used up: submit your diagnosis` })
   }
-  const badTerminals = terminalErrors(body.document, body.from, body.to)
-  if (badTerminals.length) throw invalidInput(badTerminals)
   const settled = settle(hunt, body.document)
-  const knownTerminal = (t: string) => settled.result.terminals[t] !== undefined
-  const unknown = [['from', body.from], ['to', body.to]].filter(([, t]) => !knownTerminal(t!))
+  // the student's own terminals only: the faulted bank has parts of its own (an open coil's break)
+  const unknown = [['from', body.from], ['to', body.to]].filter(([, t]) => !settled.terminals.has(t!))
   if (unknown.length) throw invalidInput(unknown.map(([path, t]) => ({ path: path!, message: `"${t}" is not a terminal of this bank` })))
   const reading = settled.between(body.from, body.to)
   const happened = await record(attempt, settled, { probe: true })

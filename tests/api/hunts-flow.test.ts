@@ -259,3 +259,15 @@ describe('the demo scenario', () => {
     }
   })
 })
+
+describe('probing a part the student does not have', () => {
+  it('is refused, even where the hidden fault adds a part to the bank (an open coil)', async () => {
+    const bank = await instructor.call('/api/banks', { method: 'POST', json: { name: 'hidden part', document: practice } })
+    const hunt = await instructor.call('/api/hunts', { method: 'POST', json: { bankId: bank.body.id, title: 'hidden part', faults: [{ kind: 'open-coil', component: 'T1', coil: 'X1-X2' }] } })
+    await instructor.call(`/api/hunts/${hunt.body.id}/publish`, { method: 'POST', json: { classIds: [classId] } })
+    const attempt = (await student.call(`/api/hunts/${hunt.body.id}/attempts`, { method: 'POST' })).body
+    const r = await student.call(`/api/attempts/${attempt.id}/probe`, { method: 'POST', json: { document: attempt.document, from: 'open1.a', to: 'T1.X1' } })
+    expect(r.status).toBe(400)
+    expect(r.body.data.errors).toEqual([{ path: 'from', message: '"open1.a" is not a terminal of this bank' }])
+  })
+})
