@@ -3,11 +3,16 @@
 //   { "cases": [ { "name": "...", "units": 3, "engineMicros": 0, "ngspiceMicros": 0, "networkSolveMicros": 0 } ] }
 //
 // Engine: the median time of one full solve, parse → settled result (protection included),
-// each timed iteration starting afresh from the JSON text (solve(JSON.parse(text))).
+// each timed iteration starting afresh from the JSON text (solve(JSON.parse(text))). Each case
+// is timed in a process of its own (this same bundle, run with --case K), warmed up on that
+// case alone: in one process, the JIT's code for one case is de-optimised by the next case's
+// differently shaped documents, and the figure of a case would depend on which ran before it
+// (the reason JMH forks a fresh JVM for each benchmark).
 // ngspice (where it is on the PATH): the same circuit's netlist from toSpiceNetlist, run with
 // many .ac points and with one; the difference of the medians divided by the extra points
 // is the time of one AC point. A benchmark, not a test: nothing here asserts a timing.
 import { spawnSync } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
 import { accessSync, constants, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { cpus, loadavg, tmpdir } from 'node:os'
 import { delimiter, join } from 'node:path'
@@ -65,7 +70,7 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2
 }
 
-/** Median µs of solve(JSON.parse(text)): a short warm-up of its own, then at least 25 iterations and about 2.5 s. */
+/** Median µs of solve(JSON.parse(text)): a warm-up of about 1 s, then at least 25 iterations and about 2.5 s. */
 function timeEngine(text: string): { micros: number; iterations: number } {
   let sink = 0
   const run = () => {
@@ -73,7 +78,7 @@ function timeEngine(text: string): { micros: number; iterations: number } {
     sink += r.events.length + (r.energized ? 1 : 0)
   }
   const warmStart = performance.now()
-  for (let i = 0; i < 10 || (performance.now() - warmStart < 500 && i < 5000); i++) run()
+  for (let i = 0; i < 10 || (performance.now() - warmStart < 1000 && i < 20000); i++) run()
   const samples: number[] = []
   const start = performance.now()
   while (samples.length < 25 || (performance.now() - start < 2500 && samples.length < 20000)) {
@@ -181,6 +186,28 @@ function timeNgspice(ngspice: string, dir: string, tag: string, doc: CircuitInpu
   return { micros: ((median(long) - median(short)) * 1000) / extra, points: rows.many }
 }
 
+/** `--case K`: time case K's engine alone and print { engineMicros, iterations, networkSolveMicros } */
+const caseArg = process.argv.indexOf('--case')
+if (caseArg >= 0) {
+  const c = cases[Number(process.argv[caseArg + 1])]
+  if (!c) throw new Error(`no case ${process.argv[caseArg + 1]}`)
+  const text = JSON.stringify(c.doc)
+  const problem = c.check(solve(JSON.parse(text)))
+  if (problem) throw new Error(`case "${c.name}": ${problem}`)
+  const engine = timeEngine(text)
+  const networkSolveMicros = timeNetworkSolve(text)
+  process.stdout.write(`${JSON.stringify({ engineMicros: engine.micros, iterations: engine.iterations, networkSolveMicros })}\n`)
+  process.exit(0)
+}
+
+/** Runs this bundle again with --case K: a fresh process (and JIT) for each case. */
+function timeCaseAlone(k: number): { engineMicros: number; iterations: number; networkSolveMicros: number } {
+  const self = fileURLToPath(import.meta.url)
+  const r = spawnSync(process.execPath, [self, '--case', String(k)], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'] })
+  if (r.status !== 0) throw new Error(`timing case ${k} failed (exit ${r.status})`)
+  return JSON.parse(r.stdout)
+}
+
 const ngspice = findNgspice()
 const dir = ngspice ? mkdtempSync(join(tmpdir(), 'phaseloom-bench-')) : undefined
 note(`Phaseloom engine benchmark · node ${process.version} · ${cpus().length} cores · load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}`)
@@ -197,22 +224,9 @@ interface Row {
 }
 const rows: Row[] = []
 try {
-  const texts = cases.map((c) => JSON.stringify(c.doc))
   cases.forEach((c, k) => {
-    const problem = c.check(solve(JSON.parse(texts[k]!)))
-    if (problem) throw new Error(`case "${c.name}": ${problem}`)
-  })
-  // the JIT takes a few seconds to settle: warm every case up once before timing any of them
-  note('  warming up…')
-  texts.forEach((text) => {
-    const start = performance.now()
-    for (let i = 0; i < 5 || (performance.now() - start < 600 && i < 20000); i++) solve(JSON.parse(text))
-  })
-  cases.forEach((c, k) => {
-    const text = texts[k]!
-    note(`  ${c.name}: engine…`)
-    const engine = timeEngine(text)
-    const networkSolve = timeNetworkSolve(text)
+    note(`  ${c.name}: engine (a process of its own)…`)
+    const engine = timeCaseAlone(k)
     let spice: { micros: number; points: number } | undefined
     if (ngspice && dir) {
       note(`  ${c.name}: ngspice…`)
@@ -221,8 +235,8 @@ try {
     rows.push({
       name: c.name,
       units: c.units,
-      engineMicros: Math.round(engine.micros * 10) / 10,
-      networkSolveMicros: Math.round(networkSolve * 10) / 10,
+      engineMicros: Math.round(engine.engineMicros * 10) / 10,
+      networkSolveMicros: Math.round(engine.networkSolveMicros * 10) / 10,
       ngspiceMicros: spice ? Math.round(spice.micros * 10) / 10 : null,
       iterations: engine.iterations,
       points: spice?.points ?? null,

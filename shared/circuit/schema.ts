@@ -11,25 +11,32 @@ export const CIRCUIT_VERSION = 1
 /** Hard limits that keep one solve bounded; far above any real bank. */
 export const LIMITS = { components: 5000, wires: 20000, idLength: 32, nameLength: 200 } as const
 
-const ID_PATTERN = /^[A-Za-z][A-Za-z0-9_-]*$/
+/** a letter, then up to 31 letters, digits, "-" or "_": length and characters in one pattern */
+const ID_PATTERN = new RegExp(`^[A-Za-z][A-Za-z0-9_-]{0,${LIMITS.idLength - 1}}$`)
 
-const id = z
-  .string({ error: 'id must be a string' })
-  .min(1, { error: 'id must not be empty' })
-  .max(LIMITS.idLength, { error: `id must be at most ${LIMITS.idLength} characters` })
-  .regex(ID_PATTERN, { error: 'id must start with a letter and hold only letters, digits, "-" or "_"' })
+// One check per field, not one per rule: zod's cost grows with the number of checks, and a
+// document holds a few hundred ids and numbers. The error function says which rule failed.
+const id = z.string({ error: 'id must be a string' }).regex(ID_PATTERN, {
+  error: (issue) => {
+    const value = String(issue.input ?? '')
+    if (value.length === 0) return 'id must not be empty'
+    if (value.length > LIMITS.idLength) return `id must be at most ${LIMITS.idLength} characters`
+    return 'id must start with a letter and hold only letters, digits, "-" or "_"'
+  },
+})
 
-// zod 4's number() already refuses NaN and ±Infinity; the checks below are its own (fast)
+// zod 4's number() already refuses NaN and ±Infinity
 function positive(field: string, max: number, unit = '') {
+  const tooSmall = `${field} must be greater than 0`
+  const tooBig = `${field} must be at most ${max}${unit}`
   return z
     .number({ error: `${field} must be a number` })
-    .gt(0, { error: `${field} must be greater than 0` })
-    .lte(max, { error: `${field} must be at most ${max}${unit}` })
+    .refine((v) => v > 0 && v <= max, { error: (issue) => ((issue.input as number) > 0 ? tooBig : tooSmall) })
 }
 
 function bounded(field: string, min: number, max: number) {
   const error = `${field} must be between ${min} and ${max}`
-  return z.number({ error: `${field} must be a number` }).gte(min, { error }).lte(max, { error })
+  return z.number({ error: `${field} must be a number` }).refine((v) => v >= min && v <= max, { error })
 }
 
 export const ImpedanceSchema = z.object({
