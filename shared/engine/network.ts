@@ -165,6 +165,44 @@ export function windingRatedAmps(t: Transformer): { primary: number; coils: numb
 }
 
 /**
+ * The Topology as a class: the lazy terminalNode map is a getter on the prototype, so every
+ * instance keeps V8's fast properties (an accessor in an object literal puts the object in
+ * dictionary mode, and every `topo.x` in the engine's loops becomes a hash lookup).
+ */
+class NetworkTopology implements Topology {
+  readonly unitById: Map<string, Unit>
+  readonly nodeCount: number
+  bankCache?: unknown = undefined
+  #terminalNode: Map<string, number> | undefined = undefined
+
+  constructor(
+    readonly circuit: Circuit,
+    readonly byId: Map<string, Component>,
+    readonly terminalIndex: Map<string, number>,
+    readonly terminalNames: string[],
+    readonly terminalNodes: number[],
+    readonly nodeLabels: string[][],
+    readonly units: Unit[],
+    readonly phases: SupplyPhase[],
+    readonly poles: SwitchPole[],
+    readonly loads: Topology['loads'],
+    readonly meters: Topology['meters'],
+  ) {
+    this.unitById = new Map(units.map((u) => [u.id, u]))
+    this.nodeCount = nodeLabels.length
+  }
+
+  get terminalNode(): Map<string, number> {
+    if (!this.#terminalNode) {
+      const map = new Map<string, number>()
+      for (let k = 0; k < this.terminalNames.length; k++) map.set(this.terminalNames[k]!, this.terminalNodes[k]!)
+      this.#terminalNode = map
+    }
+    return this.#terminalNode
+  }
+}
+
+/**
  * @param terminals the terminals and wire ends as parseCircuitIndexed found them in this very
  * document, unchanged since (worked out here when absent)
  */
@@ -306,31 +344,7 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
         break
     }
   }
-  const unitById = new Map(units.map((u) => [u.id, u]))
-  let terminalNode: Map<string, number> | undefined
-  const topo: Topology = {
-    get terminalNode() {
-      if (!terminalNode) {
-        terminalNode = new Map<string, number>()
-        for (let k = 0; k < terminalNames.length; k++) terminalNode.set(terminalNames[k]!, nodeOf[k]!)
-      }
-      return terminalNode
-    },
-    terminalIndex: index,
-    terminalNames,
-    terminalNodes: nodeOf,
-    circuit,
-    byId,
-    unitById,
-    nodeCount: nodeLabels.length,
-    nodeLabels,
-    units,
-    phases,
-    poles,
-    loads,
-    meters,
-    bankCache: undefined,
-  }
+  const topo = new NetworkTopology(circuit, byId, index, terminalNames, nodeOf, nodeLabels, units, phases, poles, loads, meters)
   checkSourceLoops(topo)
   return topo
 }
