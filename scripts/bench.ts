@@ -1,6 +1,6 @@
 // npm run bench                    → a table: engine µs per full solve, ngspice µs per point, the ratio
 // npm run --silent bench -- --json → exactly one JSON object on stdout:
-//   { "cases": [ { "name": "...", "units": 3, "engineMicros": 0, "ngspiceMicros": 0, "networkSolveMicros": 0 } ] }
+//   { "cases": [ { "name": "...", "units": 3, "engineMicros": 0, "ngspiceMicros": 0, "networkSolveMicros": 0, "ratio": 0 } ] }
 //
 // Engine: the median time of one full solve, parse → settled result (protection included),
 // each timed iteration starting afresh from the JSON text (solve(JSON.parse(text))). Each case
@@ -70,7 +70,7 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2
 }
 
-/** Median µs of solve(JSON.parse(text)): a warm-up of about 1 s, then at least 25 iterations and about 2.5 s. */
+/** Median µs of solve(JSON.parse(text)): a warm-up of about 1 s, then at least 25 iterations and about 1.5 s. */
 function timeEngine(text: string): { micros: number; iterations: number } {
   let sink = 0
   const run = () => {
@@ -81,7 +81,7 @@ function timeEngine(text: string): { micros: number; iterations: number } {
   for (let i = 0; i < 10 || (performance.now() - warmStart < 1000 && i < 20000); i++) run()
   const samples: number[] = []
   const start = performance.now()
-  while (samples.length < 25 || (performance.now() - start < 2500 && samples.length < 20000)) {
+  while (samples.length < 25 || (performance.now() - start < 1500 && samples.length < 20000)) {
     const t0 = performance.now()
     run()
     samples.push(performance.now() - t0)
@@ -158,13 +158,18 @@ function runNgspice(ngspice: string, file: string): { millis: number; rows: numb
   return { millis, rows: Number(rows[1]) }
 }
 
-/** µs per AC point: (median of N-point runs − median of 1-point runs) / (N − 1), 5 runs each. */
-function timeNgspice(ngspice: string, dir: string, tag: string, doc: CircuitInput): { micros: number; points: number } {
+interface SpiceCase {
+  one: string
+  many: string
+  points: number
+}
+
+/** Writes the 1-point and N-point netlists; a pilot run sizes N to about 0.6 s of extra work (201 to 20001 points). */
+function prepareNgspice(ngspice: string, dir: string, tag: string, doc: CircuitInput): SpiceCase {
   const one = join(dir, `${tag}-1.cir`)
   writeFileSync(one, timingNetlist(doc, 1))
   const pilot = join(dir, `${tag}-pilot.cir`)
   writeFileSync(pilot, timingNetlist(doc, 201))
-  // a pilot run sizes the sweep to about 0.6 s of extra work, between 201 and 20001 points
   runNgspice(ngspice, one)
   const base = runNgspice(ngspice, one)
   const p = runNgspice(ngspice, pilot)
@@ -172,12 +177,17 @@ function timeNgspice(ngspice: string, dir: string, tag: string, doc: CircuitInpu
   const points = Math.min(20001, Math.max(201, Math.round(600 / guess / 100) * 100 + 1))
   const many = join(dir, `${tag}-${points}.cir`)
   writeFileSync(many, timingNetlist(doc, points))
+  return { one, many, points }
+}
+
+/** µs per AC point: (median of N-point runs − median of 1-point runs) / (N − 1), `pairs` runs each, alternated. */
+function timeNgspice(ngspice: string, spice: SpiceCase, pairs: number): { micros: number; points: number } {
   const short: number[] = []
   const long: number[] = []
-  let rows = { one: 1, many: points }
-  for (let i = 0; i < 5; i++) {
-    const a = runNgspice(ngspice, one)
-    const b = runNgspice(ngspice, many)
+  let rows = { one: 1, many: spice.points }
+  for (let i = 0; i < pairs; i++) {
+    const a = runNgspice(ngspice, spice.one)
+    const b = runNgspice(ngspice, spice.many)
     short.push(a.millis)
     long.push(b.millis)
     rows = { one: a.rows, many: b.rows }
@@ -213,32 +223,54 @@ const dir = ngspice ? mkdtempSync(join(tmpdir(), 'phaseloom-bench-')) : undefine
 note(`Phaseloom engine benchmark · node ${process.version} · ${cpus().length} cores · load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}`)
 note(ngspice ? `ngspice: ${ngspice}` : 'ngspice: not on the PATH (engine only)')
 
+/**
+ * Rounds per case: the engine (a fresh process) and then ngspice (three pairs of runs), in
+ * turn. This machine's speed drifts by tens of percent from one minute to the next; timing
+ * the two alternately, a round's ratio compares them at the same speed, and the figures are
+ * the medians over the rounds.
+ */
+const ROUNDS = 3
+
 interface Row {
   name: string
   units: number
   engineMicros: number
   networkSolveMicros: number
   ngspiceMicros: number | null
+  /** median over the rounds of (engine ÷ ngspice) in the same round */
+  ratio: number | null
   iterations: number
   points: number | null
 }
 const rows: Row[] = []
 try {
   cases.forEach((c, k) => {
-    note(`  ${c.name}: engine (a process of its own)…`)
-    const engine = timeCaseAlone(k)
-    let spice: { micros: number; points: number } | undefined
-    if (ngspice && dir) {
-      note(`  ${c.name}: ngspice…`)
-      spice = timeNgspice(ngspice, dir, `case${k}`, c.doc)
+    const spice = ngspice && dir ? prepareNgspice(ngspice, dir, `case${k}`, c.doc) : undefined
+    const engine: number[] = []
+    const network: number[] = []
+    const spiceMicros: number[] = []
+    const ratios: number[] = []
+    let iterations = 0
+    for (let round = 1; round <= ROUNDS; round++) {
+      note(`  ${c.name}: round ${round} of ${ROUNDS}: engine (a process of its own)${spice ? ', then ngspice' : ''}…`)
+      const e = timeCaseAlone(k)
+      engine.push(e.engineMicros)
+      network.push(e.networkSolveMicros)
+      iterations += e.iterations
+      if (ngspice && spice) {
+        const sp = timeNgspice(ngspice, spice, 3)
+        spiceMicros.push(sp.micros)
+        ratios.push(e.engineMicros / sp.micros)
+      }
     }
     rows.push({
       name: c.name,
       units: c.units,
-      engineMicros: Math.round(engine.engineMicros * 10) / 10,
-      networkSolveMicros: Math.round(engine.networkSolveMicros * 10) / 10,
-      ngspiceMicros: spice ? Math.round(spice.micros * 10) / 10 : null,
-      iterations: engine.iterations,
+      engineMicros: Math.round(median(engine) * 10) / 10,
+      networkSolveMicros: Math.round(median(network) * 10) / 10,
+      ngspiceMicros: spice ? Math.round(median(spiceMicros) * 10) / 10 : null,
+      ratio: spice ? Math.round(median(ratios) * 100) / 100 : null,
+      iterations,
       points: spice?.points ?? null,
     })
   })
@@ -247,11 +279,11 @@ try {
 }
 
 if (json) {
-  process.stdout.write(`${JSON.stringify({ cases: rows.map(({ name, units, engineMicros, networkSolveMicros, ngspiceMicros }) => ({ name, units, engineMicros, ngspiceMicros, networkSolveMicros })) })}\n`)
+  process.stdout.write(`${JSON.stringify({ cases: rows.map(({ name, units, engineMicros, networkSolveMicros, ngspiceMicros, ratio }) => ({ name, units, engineMicros, ngspiceMicros, networkSolveMicros, ratio })) })}\n`)
 } else {
   const fmt = (us: number) => (us >= 10000 ? `${(us / 1000).toFixed(1)} ms` : `${us.toFixed(1)} µs`)
   const table = [
-    ['case', 'units', 'engine / solve', 'solves timed', 'network solve', 'ngspice / point', 'points', 'engine ÷ ngspice', 'network solve ÷ ngspice'],
+    ['case', 'units', 'engine / solve', 'solves timed', 'network solve', 'ngspice / point', 'points', 'engine ÷ ngspice (by round)', 'network solve ÷ ngspice'],
     ...rows.map((r) => [
       r.name,
       String(r.units),
@@ -260,7 +292,7 @@ if (json) {
       fmt(r.networkSolveMicros),
       r.ngspiceMicros === null ? '—' : fmt(r.ngspiceMicros),
       r.points === null ? '—' : String(r.points),
-      r.ngspiceMicros === null ? '—' : `${(r.engineMicros / r.ngspiceMicros).toFixed(1)} ×`,
+      r.ratio === null ? '—' : `${r.ratio.toFixed(1)} ×`,
       r.ngspiceMicros === null ? '—' : `${(r.networkSolveMicros / r.ngspiceMicros).toFixed(1)} ×`,
     ]),
   ]
@@ -275,7 +307,7 @@ if (json) {
   if (big) out.push(`  300-unit network ≤ 50 ms: ${fmt(big.engineMicros)}`)
   if (mid) {
     out.push(
-      `  30-unit network within 10 × of ngspice per point: ${mid.ngspiceMicros === null ? 'ngspice absent' : `full solve ${(mid.engineMicros / mid.ngspiceMicros).toFixed(1)} ×, network solve alone ${(mid.networkSolveMicros / mid.ngspiceMicros).toFixed(1)} ×`}`,
+      `  30-unit network within 10 × of ngspice per point: ${mid.ngspiceMicros === null ? 'ngspice absent' : `full solve ${mid.ratio!.toFixed(1)} ×, network solve alone ${(mid.networkSolveMicros / mid.ngspiceMicros).toFixed(1)} ×`}`,
     )
   }
   process.stdout.write(`${out.join('\n')}\n`)
