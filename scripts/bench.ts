@@ -1,9 +1,11 @@
 // npm run bench                    → a table: engine µs per full solve, ngspice µs per point, the ratio
 // npm run --silent bench -- --json → exactly one JSON object on stdout:
-//   { "cases": [ { "name": "...", "units": 3, "engineMicros": 0, "ngspiceMicros": 0, "networkSolveMicros": 0, "ratio": 0 } ] }
+//   { "cases": [ { "name": "...", "units": 3, "engineMicros": 0, "ngspiceMicros": 0, "networkSolveMicros": 0, "fromTextMicros": 0, "ratio": 0 } ] }
 //
-// Engine: the median time of one full solve, parse → settled result (protection included),
-// each timed iteration starting afresh from the JSON text (solve(JSON.parse(text))). Each case
+// Engine: the median time of one full solve, parse → settled result (protection included):
+// solve(doc), parseCircuit's validation first, on a document JSON.parse made for that very
+// iteration outside the timed span (so each iteration starts afresh); the same with the JSON
+// decoding inside the span is printed beside it (fromTextMicros). Each case
 // is timed in a process of its own (this same bundle, run with --case K), warmed up on that
 // case alone: in one process, the JIT's code for one case is de-optimised by the next case's
 // differently shaped documents, and the figure of a case would depend on which ran before it
@@ -70,24 +72,32 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2
 }
 
-/** Median µs of solve(JSON.parse(text)): a warm-up of about 1 s, then at least 25 iterations and about 1.5 s. */
-function timeEngine(text: string): { micros: number; iterations: number } {
+/**
+ * Median µs of a full solve, two ways, alternating in one loop (a warm-up of about 1 s, then
+ * at least 25 of each over about 1.5 s):
+ * - `micros`: solve(doc) on a document JSON.parse made just before, outside the timed span —
+ *   parse → settled result as the engine sees it (parseCircuit's validation included). Every
+ *   iteration has a document of its own, so nothing can be carried over from the last one.
+ * - `fromTextMicros`: solve(JSON.parse(text)), the JSON decoding inside the timed span too.
+ */
+function timeEngine(text: string): { micros: number; fromTextMicros: number; iterations: number } {
   let sink = 0
-  const run = () => {
-    const r = solve(JSON.parse(text))
-    sink += r.events.length + (r.energized ? 1 : 0)
-  }
   const warmStart = performance.now()
-  for (let i = 0; i < 10 || (performance.now() - warmStart < 1000 && i < 20000); i++) run()
+  for (let i = 0; i < 10 || (performance.now() - warmStart < 1000 && i < 20000); i++) sink += solve(JSON.parse(text)).events.length
   const samples: number[] = []
+  const fromText: number[] = []
   const start = performance.now()
   while (samples.length < 25 || (performance.now() - start < 1500 && samples.length < 20000)) {
-    const t0 = performance.now()
-    run()
+    const doc: unknown = JSON.parse(text)
+    let t0 = performance.now()
+    sink += solve(doc).events.length
     samples.push(performance.now() - t0)
+    t0 = performance.now()
+    sink += solve(JSON.parse(text)).events.length
+    fromText.push(performance.now() - t0)
   }
   if (sink < 0) process.stderr.write('')
-  return { micros: median(samples) * 1000, iterations: samples.length }
+  return { micros: median(samples) * 1000, fromTextMicros: median(fromText) * 1000, iterations: samples.length }
 }
 
 /**
@@ -206,12 +216,12 @@ if (caseArg >= 0) {
   if (problem) throw new Error(`case "${c.name}": ${problem}`)
   const engine = timeEngine(text)
   const networkSolveMicros = timeNetworkSolve(text)
-  process.stdout.write(`${JSON.stringify({ engineMicros: engine.micros, iterations: engine.iterations, networkSolveMicros })}\n`)
+  process.stdout.write(`${JSON.stringify({ engineMicros: engine.micros, fromTextMicros: engine.fromTextMicros, iterations: engine.iterations, networkSolveMicros })}\n`)
   process.exit(0)
 }
 
 /** Runs this bundle again with --case K: a fresh process (and JIT) for each case. */
-function timeCaseAlone(k: number): { engineMicros: number; iterations: number; networkSolveMicros: number } {
+function timeCaseAlone(k: number): { engineMicros: number; fromTextMicros: number; iterations: number; networkSolveMicros: number } {
   const self = fileURLToPath(import.meta.url)
   const r = spawnSync(process.execPath, [self, '--case', String(k)], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'] })
   if (r.status !== 0) throw new Error(`timing case ${k} failed (exit ${r.status})`)
@@ -235,6 +245,8 @@ interface Row {
   name: string
   units: number
   engineMicros: number
+  /** the same with JSON.parse of the text inside the timed span */
+  fromTextMicros: number
   networkSolveMicros: number
   ngspiceMicros: number | null
   /** median over the rounds of (engine ÷ ngspice) in the same round */
@@ -247,6 +259,7 @@ try {
   cases.forEach((c, k) => {
     const spice = ngspice && dir ? prepareNgspice(ngspice, dir, `case${k}`, c.doc) : undefined
     const engine: number[] = []
+    const fromText: number[] = []
     const network: number[] = []
     const spiceMicros: number[] = []
     const ratios: number[] = []
@@ -255,6 +268,7 @@ try {
       note(`  ${c.name}: round ${round} of ${ROUNDS}: engine (a process of its own)${spice ? ', then ngspice' : ''}…`)
       const e = timeCaseAlone(k)
       engine.push(e.engineMicros)
+      fromText.push(e.fromTextMicros)
       network.push(e.networkSolveMicros)
       iterations += e.iterations
       if (ngspice && spice) {
@@ -267,6 +281,7 @@ try {
       name: c.name,
       units: c.units,
       engineMicros: Math.round(median(engine) * 10) / 10,
+      fromTextMicros: Math.round(median(fromText) * 10) / 10,
       networkSolveMicros: Math.round(median(network) * 10) / 10,
       ngspiceMicros: spice ? Math.round(median(spiceMicros) * 10) / 10 : null,
       ratio: spice ? Math.round(median(ratios) * 100) / 100 : null,
@@ -279,15 +294,16 @@ try {
 }
 
 if (json) {
-  process.stdout.write(`${JSON.stringify({ cases: rows.map(({ name, units, engineMicros, networkSolveMicros, ngspiceMicros, ratio }) => ({ name, units, engineMicros, ngspiceMicros, networkSolveMicros, ratio })) })}\n`)
+  process.stdout.write(`${JSON.stringify({ cases: rows.map(({ name, units, engineMicros, fromTextMicros, networkSolveMicros, ngspiceMicros, ratio }) => ({ name, units, engineMicros, ngspiceMicros, networkSolveMicros, fromTextMicros, ratio })) })}\n`)
 } else {
   const fmt = (us: number) => (us >= 10000 ? `${(us / 1000).toFixed(1)} ms` : `${us.toFixed(1)} µs`)
   const table = [
-    ['case', 'units', 'engine / solve', 'solves timed', 'network solve', 'ngspice / point', 'points', 'engine ÷ ngspice (by round)', 'network solve ÷ ngspice'],
+    ['case', 'units', 'engine / solve', 'with JSON.parse', 'solves timed', 'network solve', 'ngspice / point', 'points', 'engine ÷ ngspice (by round)', 'network solve ÷ ngspice'],
     ...rows.map((r) => [
       r.name,
       String(r.units),
       fmt(r.engineMicros),
+      fmt(r.fromTextMicros),
       String(r.iterations),
       fmt(r.networkSolveMicros),
       r.ngspiceMicros === null ? '—' : fmt(r.ngspiceMicros),
