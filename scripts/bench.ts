@@ -239,7 +239,7 @@ note(ngspice ? `ngspice: ${ngspice}` : 'ngspice: not on the PATH (engine only)')
  * the two alternately, a round's ratio compares them at the same speed, and the figures are
  * the medians over the rounds.
  */
-const ROUNDS = 3
+const ROUNDS = 5
 
 interface Row {
   name: string
