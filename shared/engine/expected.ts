@@ -67,8 +67,8 @@ export function expectedReadings(circuit: Circuit, result: SolveResult): Record<
     }
     if (!output || !secondaryLine) continue
     const o = (t: string) => node(`${output.id}.${t}`)
-    const lines = ['a', 'b', 'c'].filter((t) => (topo.nodeLabels[o(t) ?? -1]?.length ?? 0) > 1)
-    const neutralWired = (o('n') ?? -1) < 0 || (topo.nodeLabels[o('n')!]?.length ?? 0) > 1
+    const lines = ['a', 'b', 'c'].filter((t) => (topo.nodeTerminalCount[o(t) ?? -1] ?? 0) > 1)
+    const neutralWired = (o('n') ?? -1) < 0 || (topo.nodeTerminalCount[o('n')!] ?? 0) > 1
     for (const [x, y] of [['a', 'b'], ['b', 'c'], ['c', 'a']]) {
       if (lines.includes(x!) && lines.includes(y!) && pair(o(x!), o(y!))) out[m.id] = { volts: secondaryLine.line, ...angles?.(ends[0] === o(x!) ? [x!, y!] : [y!, x!]), basis: secondaryLine.basis }
     }

@@ -96,7 +96,10 @@ export interface Topology {
   terminalNodes: number[]
   /** circuit nodes plus the hidden star point of each delta supply */
   nodeCount: number
-  nodeLabels: string[][]
+  /** the terminals at each node, by name (a star point by its own label); made on first use */
+  readonly nodeLabels: string[][]
+  /** how many terminals meet at each node */
+  nodeTerminalCount: number[]
   units: Unit[]
   phases: SupplyPhase[]
   poles: SwitchPole[]
@@ -174,6 +177,7 @@ class NetworkTopology implements Topology {
   readonly nodeCount: number
   bankCache?: unknown = undefined
   #terminalNode: Map<string, number> | undefined = undefined
+  #nodeLabels: string[][] | undefined = undefined
 
   constructor(
     readonly circuit: Circuit,
@@ -181,7 +185,8 @@ class NetworkTopology implements Topology {
     readonly terminalIndex: Map<string, number>,
     readonly terminalNames: string[],
     readonly terminalNodes: number[],
-    readonly nodeLabels: string[][],
+    readonly nodeTerminalCount: number[],
+    private readonly extraLabels: string[],
     readonly units: Unit[],
     readonly phases: SupplyPhase[],
     readonly poles: SwitchPole[],
@@ -189,7 +194,19 @@ class NetworkTopology implements Topology {
     readonly meters: Topology['meters'],
   ) {
     this.unitById = new Map(units.map((u) => [u.id, u]))
-    this.nodeCount = nodeLabels.length
+    this.nodeCount = nodeTerminalCount.length
+  }
+
+  get nodeLabels(): string[][] {
+    if (!this.#nodeLabels) {
+      const labels: string[][] = Array.from({ length: this.nodeCount }, (_, node) => (this.extraLabels[node] === undefined ? [] : [this.extraLabels[node]!]))
+      for (let k = 0; k < this.terminalNames.length; k++) {
+        const node = this.terminalNodes[k]!
+        if (node >= 0) labels[node]!.push(this.terminalNames[k]!)
+      }
+      this.#nodeLabels = labels
+    }
+    return this.#nodeLabels
   }
 
   get terminalNode(): Map<string, number> {
@@ -256,18 +273,20 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
   /** node of each terminal by its index */
   const nodeOf: number[] = new Array<number>(count)
   const rootNode: number[] = new Array<number>(count + 1).fill(-1)
-  const nodeLabels: string[][] = []
+  /** how many terminals meet at each node (the labels themselves are made when asked for) */
+  const terminalCount: number[] = []
+  /** nodes that are no terminal's: the hidden star point of each delta supply */
+  const extraLabels: string[] = []
   for (let i = 0; i < count; i++) {
-    const name = terminalNames[i]!
     const root = uf.find(i)
     let node = -1
     if (root !== groundRoot) {
       node = rootNode[root]!
       if (node < 0) {
-        node = nodeLabels.length
+        node = terminalCount.length
         rootNode[root] = node
-        nodeLabels.push([name])
-      } else nodeLabels[node]!.push(name)
+        terminalCount.push(1)
+      } else terminalCount[node]!++
     }
     nodeOf[i] = node
   }
@@ -286,8 +305,9 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
         if (c.connection === 'delta') {
           // a delta source is modelled by its wye equivalent behind the same per-phase
           // impedance, the star point floating: identical line-to-line phasors, no neutral
-          star = nodeLabels.length
-          nodeLabels.push([`${c.id} (star point)`])
+          star = terminalCount.length
+          terminalCount.push(0)
+          extraLabels[star] = `${c.id} (star point)`
         }
         const vPhase = c.lineVolts / Math.sqrt(3)
         // circuit-format.md: V(A−N) at 0°, V(B−N) at −120°, V(C−N) at +120° for ABC
@@ -344,7 +364,7 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
         break
     }
   }
-  const topo = new NetworkTopology(circuit, byId, index, terminalNames, nodeOf, nodeLabels, units, phases, poles, loads, meters)
+  const topo = new NetworkTopology(circuit, byId, index, terminalNames, nodeOf, terminalCount, extraLabels, units, phases, poles, loads, meters)
   checkSourceLoops(topo)
   return topo
 }

@@ -226,7 +226,7 @@ function buildResult(
     const [sr, si] = vt(`${supply.id}.A`).map((x, i) => x - vt(`${supply.id}.B`)[i]!) as [number, number]
     const wired = [`${output.id}.a`, `${output.id}.b`].every((t) => {
       const node = nodeOfTerminal(topo, t)!
-      return node < 0 || topo.nodeLabels[node]!.length > 1
+      return node < 0 || topo.nodeTerminalCount[node]! > 1
     })
     if (wired && Math.hypot(or, oi) > 1e-3 * Math.hypot(sr, si) && Math.hypot(sr, si) > 0) {
       let d = degreesOf(or, oi) - degreesOf(sr, si)
