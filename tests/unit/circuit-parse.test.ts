@@ -89,4 +89,20 @@ describe('parseCircuit: every error names its path and says what is wrong', () =
     if (r.ok) return
     expect(r.errors.map((e) => e.path).sort()).toEqual(['components[0].kva', 'components[1].id', 'wires[0]', 'wires[1][1]'].sort())
   })
+
+  // one check per component holds the ranges of its numbers: it must still report every
+  // problem of that component, a wrong type in one field beside a range in another
+  it('reports a wrong type and out-of-range numbers of one component together', () => {
+    const r = parseCircuit(doc([{ ...unit, id: '9T', kva: 'ten', primaryVolts: -480, secondaryVolts: [120, 0], xOverR: 500 }]))
+    expect(r.ok).toBe(false)
+    if (r.ok) return
+    const byPath = Object.fromEntries(r.errors.map((e) => [e.path, e.message]))
+    expect(byPath).toEqual({
+      'components[0].id': 'id must start with a letter and hold only letters, digits, "-" or "_"',
+      'components[0].kva': 'kva must be a number',
+      'components[0].primaryVolts': 'primaryVolts must be greater than 0',
+      'components[0].secondaryVolts[1]': 'secondaryVolts must be greater than 0',
+      'components[0].xOverR': 'xOverR must be between 0 and 100',
+    })
+  })
 })
