@@ -160,6 +160,27 @@ function joinRefused() {
   return createError({ statusCode: 404, statusMessage: 'No class found: the code or link is wrong, expired or already used' })
 }
 
+/**
+ * The class an unused, unexpired invitation token is for, so that its landing page can name
+ * it before the student joins. Whoever holds the token may join with it, so the class's name
+ * and its instructor's tell them nothing more; a token that is wrong, used or expired gets the
+ * same answer as joining with it would.
+ */
+export async function previewInvitation(user: User, token: string) {
+  const db = useDB()
+  const [row] = await db.select({ classId: classes.id, className: classes.name, term: classes.term, instructorId: classes.instructorId, instructorName: users.name, expiresAt: classInvitations.expiresAt })
+    .from(classInvitations)
+    .innerJoin(classes, eq(classes.id, classInvitations.classId))
+    .innerJoin(users, eq(users.id, classes.instructorId))
+    .where(and(
+      eq(classInvitations.tokenHash, hashLinkToken(token)),
+      isNull(classInvitations.usedAt),
+      gt(classInvitations.expiresAt, new Date()),
+    ))
+  if (!row) throw joinRefused()
+  return { className: row.className, term: row.term, instructorName: row.instructorName, expiresAt: row.expiresAt.toISOString(), youTeachIt: row.instructorId === user.id }
+}
+
 /** Joins by code or by an invitation's token (claimed once, atomically). */
 export async function joinClass(user: User, body: { code?: string, token?: string }) {
   const db = useDB()

@@ -16,10 +16,14 @@ export const ClassInviteSchema = z.object({
   emails: z.array(email, { error: 'emails is a list of e-mail addresses' }).min(1, { error: 'give at least one e-mail address' }).max(50, { error: 'at most 50 addresses at once' }),
 })
 export const JOIN_CODE_PATTERN = /^[A-HJ-NP-Z2-9]{8}$/
+/** an invitation link's token, as the e-mail carries it */
+const invitationToken = z.string({ error: 'token must be text' }).min(20, { error: 'the link is incomplete' }).max(100, { error: 'the link is not valid' }).regex(/^[A-Za-z0-9_-]+$/, { error: 'the link is not valid' })
 export const ClassJoinSchema = z.object({
   code: z.string({ error: 'code must be text' }).trim().toUpperCase().regex(JOIN_CODE_PATTERN, { error: 'a join code is 8 letters and digits, as your instructor gave it' }).optional(),
-  token: z.string({ error: 'token must be text' }).min(20, { error: 'the link is incomplete' }).max(100, { error: 'the link is not valid' }).regex(/^[A-Za-z0-9_-]+$/, { error: 'the link is not valid' }).optional(),
+  token: invitationToken.optional(),
 }).refine(b => (b.code === undefined) !== (b.token === undefined), { error: 'send a join code or an invitation token (one of them)' })
+/** POST /api/classes/invitation: what an invitation link is for, before it is used */
+export const InvitationPreviewSchema = z.object({ token: invitationToken })
 export const memberParams = z.object({
   id: z.coerce.number({ error: 'id must be a whole number' }).int({ error: 'id must be a whole number' }).positive({ error: 'id must be a whole number' }).max(2_147_483_647, { error: 'id is out of range' }),
   userId: z.coerce.number({ error: 'userId must be a whole number' }).int({ error: 'userId must be a whole number' }).positive({ error: 'userId must be a whole number' }).max(2_147_483_647, { error: 'userId is out of range' }),

@@ -77,6 +77,7 @@ const routes: { method: string, path: () => string, who: Who, keys: string[] }[]
   { method: 'PATCH', path: () => `/api/classes/${ids.klass}`, who: 'instructor', keys: ['name', 'term', 'tolerancePercent'] },
   { method: 'POST', path: () => `/api/classes/${ids.klass}/invitations`, who: 'instructor', keys: ['emails'] },
   { method: 'POST', path: () => '/api/classes/join', who: 'student', keys: ['code', 'token'] },
+  { method: 'POST', path: () => '/api/classes/invitation', who: 'student', keys: ['token'] },
   { method: 'POST', path: () => '/api/hunts', who: 'instructor', keys: ['bankId', 'title', 'instructions', 'faults', 'secondaryPrewired', 'dueAt', 'probeBudget', 'feedback'] },
   { method: 'PATCH', path: () => `/api/hunts/${ids.hunt}`, who: 'instructor', keys: ['title', 'instructions', 'faults', 'dueAt', 'probeBudget', 'feedback'] },
   { method: 'POST', path: () => `/api/hunts/${ids.hunt}/publish`, who: 'instructor', keys: ['classIds'] },

@@ -5,7 +5,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { solve } from '../../shared/engine'
 import { starterBySlug } from '../../shared/starters'
-import { databaseURL } from './helpers'
+import { api, databaseURL } from './helpers'
 import { as, firstLink, mailTo, newPerson, signIn, type Person } from './people'
 
 type Doc = { components: { id: string, kind: string, closed?: boolean, blown?: boolean }[], wires: [string, string][] } & Record<string, unknown>
@@ -52,11 +52,25 @@ describe('a class', () => {
     const link = firstLink(mail.text)
     expect(link.pathname).toBe('/classes/join')
     const token = link.searchParams.get('token')!
+    // the landing page names the class before the link is used, and looking does not use it
+    const preview = (who: Person | null, t = token) => (who ? who.call : api)('/api/classes/invitation', { method: 'POST', json: { token: t } })
+    expect((await preview(null)).status).toBe(401)
+    const seen = await preview(student)
+    expect(seen.status, seen.text).toBe(200)
+    expect(seen.body).toMatchObject({ className: 'Flow class', term: 'Spring', instructorName: instructor.name, youTeachIt: false })
+    expect(new Date(seen.body.expiresAt).getTime()).toBeGreaterThan(Date.now() + 13 * 86_400_000)
+    expect(seen.body).not.toHaveProperty('joinCode')
+    expect((await preview(instructor)).body.youTeachIt).toBe(true)
+    const wrong = await preview(student, `${token.slice(0, -4)}AAAA`)
+    expect(wrong.status).toBe(404)
+    expect(wrong.body.statusMessage).toMatch(/wrong, expired or already used/)
+    expect((await preview(student, 'short')).status).toBe(400)
     const joined = await student.call('/api/classes/join', { method: 'POST', json: { token } })
     expect(joined.status, joined.text).toBe(200)
     expect(joined.body).toEqual({ id: classId, name: 'Flow class' })
     const again = await outsider.call('/api/classes/join', { method: 'POST', json: { token } })
     expect(again.status).toBe(404)
+    expect((await preview(outsider)).status).toBe(404)
     const detail = await instructor.call(`/api/classes/${classId}`)
     expect(detail.body.roster.map((r: { email: string }) => r.email)).toEqual([student.email])
   })
