@@ -57,26 +57,28 @@ function applyRules(value: Record<string, unknown>, rules: Rules, path: (string 
     const rule = rules[field]!
     const v = value[field]
     if (typeof rule === 'function') {
-      const message = typeof v === 'number' ? rule(v) : undefined
+      // what is not a finite number has its type error from the field's own schema
+      const message = Number.isFinite(v) ? rule(v as number) : undefined
       if (message) out.push({ path: [...path, field], message, input: v })
     } else if ('each' in rule && typeof rule.each === 'function') {
       if (!Array.isArray(v)) continue
       for (let i = 0; i < v.length; i++) {
-        const message = typeof v[i] === 'number' ? (rule.each as Rule)(v[i]) : undefined
+        const message = Number.isFinite(v[i]) ? (rule.each as Rule)(v[i]) : undefined
         if (message) out.push({ path: [...path, field, i], message, input: v[i] })
       }
     } else if (typeof v === 'object' && v !== null) applyRules(v as Record<string, unknown>, rule as Rules, [...path, field], out)
   }
 }
 
-/** One check for the id (where there is one) and every number of an object, by its rules. */
+/** One check for the id (where the schema has one) and every number of an object, by its rules. */
 function ruled<T extends z.ZodObject>(schema: T, rules: Rules, more?: (value: Record<string, unknown>, out: Issues) => void): T {
+  const hasId = 'id' in schema.shape
   return schema.superRefine(
     (value, ctx) => {
       if (typeof value !== 'object' || value === null) return // the type error is zod's own
       const v = value as Record<string, unknown>
       const out: Issues = []
-      if (typeof v.id === 'string') {
+      if (hasId && typeof v.id === 'string') {
         const message = idError(v.id)
         if (message) out.push({ path: ['id'], message, input: v.id })
       }

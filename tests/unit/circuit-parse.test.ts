@@ -105,4 +105,12 @@ describe('parseCircuit: every error names its path and says what is wrong', () =
       'components[0].xOverR': 'xOverR must be between 0 and 100',
     })
   })
+
+  it('gives a number that is not finite its type error alone, and checks no id in a layout entry', () => {
+    const r = parseCircuit(doc([{ ...unit, kva: Number.NaN, primaryVolts: Number.POSITIVE_INFINITY }]))
+    expect(r.ok).toBe(false)
+    if (!r.ok) expect(r.errors).toEqual([{ path: 'components[0].kva', message: 'kva must be a number' }, { path: 'components[0].primaryVolts', message: 'primaryVolts must be a number' }])
+    const laid = parseCircuit({ ...doc([unit]), layout: { T1: { x: 1, y: 2, id: 'kept as it is!' } } })
+    expect(laid.ok).toBe(true)
+  })
 })
