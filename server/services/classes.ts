@@ -160,6 +160,15 @@ function joinRefused() {
   return createError({ statusCode: 404, statusMessage: 'No class found: the code or link is wrong, expired or already used' })
 }
 
+/** The invitation a link's token names, if it is neither used nor expired. */
+function openInvitation(token: string) {
+  return and(
+    eq(classInvitations.tokenHash, hashLinkToken(token)),
+    isNull(classInvitations.usedAt),
+    gt(classInvitations.expiresAt, new Date()),
+  )
+}
+
 /**
  * The class an unused, unexpired invitation token is for, so that its landing page can name
  * it before the student joins. Whoever holds the token may join with it, so the class's name
@@ -172,11 +181,7 @@ export async function previewInvitation(user: User, token: string) {
     .from(classInvitations)
     .innerJoin(classes, eq(classes.id, classInvitations.classId))
     .innerJoin(users, eq(users.id, classes.instructorId))
-    .where(and(
-      eq(classInvitations.tokenHash, hashLinkToken(token)),
-      isNull(classInvitations.usedAt),
-      gt(classInvitations.expiresAt, new Date()),
-    ))
+    .where(openInvitation(token))
   if (!row) throw joinRefused()
   return { className: row.className, term: row.term, instructorName: row.instructorName, expiresAt: row.expiresAt.toISOString(), youTeachIt: row.instructorId === user.id }
 }
@@ -190,11 +195,7 @@ export async function joinClass(user: User, body: { code?: string, token?: strin
     if (!klass) throw joinRefused()
   }
   else {
-    const [invitation] = await db.select().from(classInvitations).where(and(
-      eq(classInvitations.tokenHash, hashLinkToken(body.token!)),
-      isNull(classInvitations.usedAt),
-      gt(classInvitations.expiresAt, new Date()),
-    ))
+    const [invitation] = await db.select().from(classInvitations).where(openInvitation(body.token!))
     if (!invitation) throw joinRefused()
     ;[klass] = await db.select().from(classes).where(eq(classes.id, invitation.classId))
     if (!klass) throw joinRefused()
