@@ -161,7 +161,7 @@ function joinRefused() {
 }
 
 /** The invitation a link's token names, if it is neither used nor expired. */
-function openInvitation(token: string) {
+function usableInvitation(token: string) {
   return and(
     eq(classInvitations.tokenHash, hashLinkToken(token)),
     isNull(classInvitations.usedAt),
@@ -181,7 +181,7 @@ export async function previewInvitation(user: User, token: string) {
     .from(classInvitations)
     .innerJoin(classes, eq(classes.id, classInvitations.classId))
     .innerJoin(users, eq(users.id, classes.instructorId))
-    .where(openInvitation(token))
+    .where(usableInvitation(token))
   if (!row) throw joinRefused()
   return { className: row.className, term: row.term, instructorName: row.instructorName, expiresAt: row.expiresAt.toISOString(), youTeachIt: row.instructorId === user.id }
 }
@@ -195,7 +195,7 @@ export async function joinClass(user: User, body: { code?: string, token?: strin
     if (!klass) throw joinRefused()
   }
   else {
-    const [invitation] = await db.select().from(classInvitations).where(openInvitation(body.token!))
+    const [invitation] = await db.select().from(classInvitations).where(usableInvitation(body.token!))
     if (!invitation) throw joinRefused()
     ;[klass] = await db.select().from(classes).where(eq(classes.id, invitation.classId))
     if (!klass) throw joinRefused()
