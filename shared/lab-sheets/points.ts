@@ -25,6 +25,12 @@ export interface TestPoint {
   /** what a miss is measured against: the expected value, or for a closing check the coil voltage */
   referenceVolts: number
   note: string
+  /**
+   * For an output reading, the unit whose secondary alone feeds each output terminal it touches
+   * (`{ 'OUT.b': 'T1' }`): every line of a wye, both lines of one unit's 120/240 V output. A delta
+   * corner joins two units and names none.
+   */
+  feeders?: Record<string, string>
 }
 
 const isSecondary = (t: string) => /^X[1-4]$/.test(splitTerminal(t)?.[1] ?? '')
@@ -63,6 +69,23 @@ function corners(live: Circuit, result: SolveResult) {
   return { openResult: null, closed: live, check: null }
 }
 
+/**
+ * The one unit whose secondary sits at the terminal's voltage, or null. Wired terminals are
+ * one node; a closed breaker pole or fuse between them drops a few millivolts at most under load.
+ */
+function feederOf(result: SolveResult, units: Circuit['components'], terminal: string): string | null {
+  const at = result.terminals[terminal]
+  if (!at) return null
+  const within = Math.max(0.5, at.volts * 0.002)
+  const found = new Set(units
+    .filter((u) => ['X1', 'X2', 'X3', 'X4'].some((x) => {
+      const t = result.terminals[`${u.id}.${x}`]
+      return t !== undefined && difference(t, at).volts <= within
+    }))
+    .map((u) => u.id))
+  return found.size === 1 ? [...found][0]! : null
+}
+
 /** The test points of a bank (a circuit document); [] when it cannot be solved. */
 export function labPoints(document: unknown): TestPoint[] {
   const parsed = parseCircuit(document)
@@ -77,13 +100,22 @@ export function labPoints(document: unknown): TestPoint[] {
   const points: Omit<TestPoint, 'step'>[] = []
   const add = (kind: PointKind, label: string, from: string, to: string, volts: number, note: string, reference = volts) =>
     points.push({ id: `${kind}:${from}:${to}`, kind, label, from, to, expectedVolts: Math.round(volts * 10) / 10, referenceVolts: Math.round(reference * 10) / 10, note })
+  const units = closed.components.filter((c) => c.kind === 'transformer')
+  const addOutput = (kind: PointKind, label: string, from: string, to: string, volts: number, note: string) => {
+    add(kind, label, from, to, volts, note)
+    const feeders: Record<string, string> = {}
+    for (const t of [from, to]) {
+      const unit = feederOf(result, units, t)
+      if (unit) feeders[t] = unit
+    }
+    if (Object.keys(feeders).length) points[points.length - 1]!.feeders = feeders
+  }
   const across = (from: string, to: string) => {
     const a = result.terminals[from]
     const b = result.terminals[to]
     return a && b ? difference(a, b).volts : null
   }
 
-  const units = closed.components.filter((c) => c.kind === 'transformer')
   for (const u of units) {
     const w = result.windings[`${u.id}.H1-H2`]
     if (w) add('primary', `${u.id} primary`, `${u.id}.H1`, `${u.id}.H2`, w.volts, 'the supply across the unit’s primary')
@@ -106,8 +138,8 @@ export function labPoints(document: unknown): TestPoint[] {
     }
   }
   for (const p of phasorView(result, closed).secondary) {
-    if (p.between === 'lines') add('line-line', `Output ${p.name}`, p.from, p.to, p.volts, 'line to line at the output')
-    else if (!p.highLeg) add('line-neutral', `Output ${p.name}`, p.from, p.to, p.volts, 'line to n at the output')
+    if (p.between === 'lines') addOutput('line-line', `Output ${p.name}`, p.from, p.to, p.volts, 'line to line at the output')
+    else if (!p.highLeg) addOutput('line-neutral', `Output ${p.name}`, p.from, p.to, p.volts, 'line to n at the output')
   }
   for (const p of phasorView(result, closed).secondary.filter((q) => q.highLeg)) {
     add('high-leg', `High leg ${p.name}`, p.from, p.to, p.volts, 'the high leg to n: about √3 × the other lines to n; mark it orange (NEC 110.15)')

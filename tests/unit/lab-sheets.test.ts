@@ -1,8 +1,9 @@
 // Lab sheets: the test points a bank gives, and the tolerance and likely-cause rules.
 // Cause rules are the trade's common practice (no published source); the high-leg value is
-// 120 × √3 (the four-wire delta, e.g. any handbook on 240/120 V delta services).
+// 120 × √3 (the four-wire delta, e.g. any handbook on 240/120 V delta services). The readings
+// of a wye with one unit reversed are worked here from the phasors (phasor arithmetic).
 import { describe, expect, it } from 'vitest'
-import { compareSheet, likelyCause, parseReading } from '../../shared/lab-sheets/compare'
+import { compareSheet, likelyCause, parseReading, sheetCause, type ComparedRow } from '../../shared/lab-sheets/compare'
 import { labPoints, type TestPoint } from '../../shared/lab-sheets/points'
 import { starterBySlug } from '../../shared/starters'
 
@@ -119,5 +120,138 @@ describe('compareSheet', () => {
     const c = compareSheet(points, { p: 480 })
     expect(c.rows.map(r => r.status)).toEqual(['ok', 'not-taken', 'not-taken'])
     expect(c.taken).toBe(1)
+  })
+})
+
+describe('feeders of the output readings', () => {
+  it('names the one unit on each line of a wye (from the starter’s wiring: a on T3, b on T1, c on T2)', () => {
+    const lines = labPoints(doc('delta-wye-208y120')).filter(p => p.kind === 'line-line')
+    expect(lines.map(p => p.feeders)).toEqual([
+      { 'OUT.a': 'T3', 'OUT.b': 'T1' },
+      { 'OUT.b': 'T1', 'OUT.c': 'T2' },
+      { 'OUT.c': 'T2', 'OUT.a': 'T3' },
+    ])
+  })
+
+  it('names none at a delta corner, where two units meet', () => {
+    for (const p of labPoints(doc('closed-delta-240')).filter(p => p.kind === 'line-line')) expect(p.feeders).toBeUndefined()
+  })
+})
+
+// the readings of a sheet by point id, from a few by label end ("T1 coil X1–X2", "Output a–b")
+function readings(points: TestPoint[], byLabel: Record<string, number>): Record<string, number> {
+  const out: Record<string, number> = {}
+  for (const [label, volts] of Object.entries(byLabel)) {
+    const p = points.find(q => q.label === label || q.label.startsWith(`${label} (`))
+    if (!p) throw new Error(`no point ${label}`)
+    out[p.id] = volts
+  }
+  return out
+}
+const causeOf = (points: TestPoint[], byLabel: Record<string, number>, label: string) =>
+  compareSheet(points, readings(points, byLabel)).rows.find(r => r.point.label === label || r.point.label.startsWith(`${label} (`))!
+
+const BUCKING = /the two coils are bucking: one coil is reversed \(check the X2–X3 jumper and the coil marking\)/
+
+describe('a unit’s two coils in series, read with its coils (common practice of the trade)', () => {
+  const series = labPoints(doc('single-unit-series-240-120'))
+  const delta = labPoints(doc('closed-delta-240'))
+
+  it.each([
+    ['common practice: each coil right, X1–X4 ≈ 0 V → bucking, one coil reversed', series, { 'T1 coil X1–X2': 120.2, 'T1 coil X3–X4': 119.8, 'T1 X1–X4': 0.4 }, 'T1 X1–X4', BUCKING],
+    ['common practice: the same in a closed delta, unit T2', delta, { 'T2 coil X1–X2': 121, 'T2 coil X3–X4': 120.5, 'T2 X1–X4': 1.2 }, 'T2 X1–X4', /coil of T2 .*the two coils are bucking/],
+    ['common practice: a few volts across a bucking pair of slightly unlike coils is still bucking', series, { 'T1 coil X1–X2': 121, 'T1 coil X3–X4': 116, 'T1 X1–X4': 5 }, 'T1 X1–X4', BUCKING],
+    ['common practice: the 120/240 V output a–b across that pair at 0 V → bucking too', series, { 'T1 coil X1–X2': 120, 'T1 coil X3–X4': 120, 'Output a–b': 0.3 }, 'Output a–b', BUCKING],
+    ['common practice: X1–X2 ≈ 0 V, X3–X4 right → X1–X2 is an open coil', series, { 'T1 coil X1–X2': 0.2, 'T1 coil X3–X4': 120, 'T1 X1–X4': 0.3 }, 'T1 coil X1–X2', /X1–X2 of T1 reads about 0 V while X3–X4 reads right: an open coil/],
+    ['common practice: the series pair beside that open coil → the open coil, not bucking', series, { 'T1 coil X1–X2': 0.2, 'T1 coil X3–X4': 120, 'T1 X1–X4': 0.3 }, 'T1 X1–X4', /X1–X2 of T1 .*an open coil/],
+    ['common practice: X3–X4 open, X1–X2 right', delta, { 'T3 coil X1–X2': 119.9, 'T3 coil X3–X4': 0, 'T3 X1–X4': 0.1 }, 'T3 X1–X4', /X3–X4 of T3 reads about 0 V while X1–X2 reads right: an open coil/],
+    ['common practice: X1–X4 ≈ 0 V with the coils not read → open or bucking: read each coil', series, { 'T1 X1–X4': 0.2 }, 'T1 X1–X4', /an open coil, or the two coils bucking .*Read each coil on its own/],
+    ['common practice: both coils and the pair at 0 V → nothing reaches the unit: fuse, breaker, upstream', series, { 'T1 coil X1–X2': 0, 'T1 coil X3–X4': 0, 'T1 X1–X4': 0 }, 'T1 X1–X4', /an open coil, a blown fuse, an open breaker/],
+    ['common practice: half across the pair with both coils right → only one coil in the reading (the X2–X3 jumper)', series, { 'T1 coil X1–X2': 120, 'T1 coil X3–X4': 120, 'T1 X1–X4': 120 }, 'T1 X1–X4', /one coil of a series pair/],
+  ] as const)('%s', (_, points, byLabel, label, cause) => {
+    const row = causeOf(points, byLabel, label)
+    expect(row.status).toBe('miss')
+    expect(row.cause).toMatch(cause)
+  })
+
+  it('common practice: a bucking pair is not called an open coil, and the coils that read right carry no cause', () => {
+    const c = compareSheet(series, readings(series, { 'T1 coil X1–X2': 120, 'T1 coil X3–X4': 120, 'T1 X1–X4': 0.4 }))
+    const pair = c.rows.find(r => r.point.label.startsWith('T1 X1–X4'))!
+    expect(pair.cause).not.toMatch(/open coil/)
+    expect(c.rows.filter(r => r.point.label.includes('coil X')).map(r => [r.status, r.cause])).toEqual([['ok', null], ['ok', null]])
+  })
+})
+
+// line to line of a 208Y/120 V wye with the unit on one phase turned round (its coil phasor + 180°):
+// e.g. b reversed: |120∠0° − 120∠60°| = 120 V (a–b), |120∠60° − 120∠120°| = 120 V (b–c), c–a stays 208 V
+function wyeWithReversed(phase: 'a' | 'b' | 'c' | null, coilVolts = 119.4): Record<'a–b' | 'b–c' | 'c–a', number> {
+  const degrees = { a: 0, b: -120, c: 120 }
+  const at = (x: 'a' | 'b' | 'c') => {
+    const d = ((degrees[x] + (x === phase ? 180 : 0)) * Math.PI) / 180
+    return [coilVolts * Math.cos(d), coilVolts * Math.sin(d)] as const
+  }
+  const across = (x: 'a' | 'b' | 'c', y: 'a' | 'b' | 'c') => Math.round(Math.hypot(at(x)[0] - at(y)[0], at(x)[1] - at(y)[1]) * 10) / 10
+  return { 'a–b': across('a', 'b'), 'b–c': across('b', 'c'), 'c–a': across('c', 'a') }
+}
+const wyeLines = (v: Record<string, number>) => Object.fromEntries(Object.entries(v).map(([pair, volts]) => [`Output ${pair}`, volts]))
+
+describe('a wye’s line pairs read together (common practice of the trade)', () => {
+  const wye = labPoints(doc('delta-wye-208y120'))
+  const REVERSED = /one unit in the wye is connected backwards/
+
+  it('works the phasors: one unit reversed leaves two pairs at ÷ √3 and the third right', () => {
+    expect(wyeWithReversed(null)).toEqual({ 'a–b': 206.8, 'b–c': 206.8, 'c–a': 206.8 })
+    expect(wyeWithReversed('b')).toEqual({ 'a–b': 119.4, 'b–c': 119.4, 'c–a': 206.8 })
+  })
+
+  it.each([
+    // the starter's wiring: line a on T3, b on T1, c on T2
+    ['common practice + phasors: b reversed → a–b and b–c low → the unit on phase b (T1)', 'b', 'T1', ['Output a–b', 'Output b–c'], 'Output c–a'],
+    ['common practice + phasors: c reversed → b–c and c–a low → the unit on phase c (T2)', 'c', 'T2', ['Output b–c', 'Output c–a'], 'Output a–b'],
+    ['common practice + phasors: a reversed → a–b and c–a low → the unit on phase a (T3)', 'a', 'T3', ['Output a–b', 'Output c–a'], 'Output b–c'],
+  ] as const)('%s', (_, phase, unit, low, right) => {
+    const c = compareSheet(wye, readings(wye, wyeLines(wyeWithReversed(phase))))
+    for (const label of low) {
+      const row = c.rows.find(r => r.point.label === label)!
+      expect(row.status).toBe('miss')
+      expect(row.cause).toMatch(REVERSED)
+      expect(row.cause).toContain(`the unit on phase ${phase} (${unit}) is the one reversed`)
+      expect(row.cause).not.toMatch(/line-to-n voltage/)
+    }
+    expect(c.rows.find(r => r.point.label === right)!).toMatchObject({ status: 'ok', cause: null })
+  })
+
+  it.each([
+    ['common practice: the pattern holds with the third pair off too (everything doubled: coils in series)', { 'a–b': 238.8, 'b–c': 238.8, 'c–a': 413.6 }, 'Output a–b', /÷ √3 of what c–a reads: one unit in the wye is connected backwards.*phase b \(T1\)/],
+    ['common practice: …and the third pair then gets its own cause', { 'a–b': 238.8, 'b–c': 238.8, 'c–a': 413.6 }, 'Output c–a', /twice the expected/],
+    ['common practice: the line to n readings right beside two low pairs do not change it', { 'a–b': 119.6, 'b–c': 119.2, 'c–a': 207, 'a–n': 119.5, 'b–n': 119.4, 'c–n': 119.3 }, 'Output b–c', REVERSED],
+    ['common practice: two pairs low, the third not read → most likely a unit reversed; read the third', { 'a–b': 119.4, 'b–c': 119.4 }, 'Output a–b', /most likely one unit in the wye is connected backwards.*phase b \(T1\).*Read the third line pair/],
+    ['common practice: one pair at ÷ √3, the others right → line to n read by mistake', { 'a–b': 119.4, 'b–c': 206.8, 'c–a': 206.8 }, 'Output a–b', /this reads like a line-to-n voltage/],
+    ['common practice: all three at ÷ √3 → the leads are on line and n', { 'a–b': 119.4, 'b–c': 119.5, 'c–a': 119.3 }, 'Output b–c', /All three line pairs read about ÷ √3.*on a line and n/],
+  ] as const)('%s', (_, pairs, label, cause) => {
+    const row = causeOf(wye, wyeLines(pairs), label)
+    expect(row.status).toBe('miss')
+    expect(row.cause).toMatch(cause)
+  })
+
+  it('common practice: on a delta, two pairs at ÷ √3 keep the one-reading cause (no wye to reverse a unit in)', () => {
+    const delta = labPoints(doc('closed-delta-240'))
+    const row = causeOf(delta, { 'Output a–b': 138.6, 'Output b–c': 138.5, 'Output c–a': 240 }, 'Output a–b')
+    expect(row.cause).toMatch(/line-to-n voltage/)
+    expect(row.cause).not.toMatch(/in the wye/)
+  })
+
+  it('common practice: a wye known by its line-to-n predictions alone (no feeders) reads the same', () => {
+    const bare = wye.map(p => ({ ...p, feeders: undefined }))
+    expect(causeOf(bare, wyeLines(wyeWithReversed('b')), 'Output a–b').cause).toMatch(/one unit in the wye is connected backwards.*the unit on phase b is the one reversed/)
+  })
+})
+
+describe('sheetCause', () => {
+  it('with only the one reading to go on, says what likelyCause says', () => {
+    const p = point('line-line', 240)
+    const row: ComparedRow = { point: p, expectedVolts: 240, measuredVolts: 138.6, deviationPercent: -42.3, status: 'miss', cause: null }
+    expect(sheetCause(row, [row])).toBe(likelyCause(p, 240, 138.6, [138.6 / 240]))
+    expect(sheetCause({ ...row, measuredVolts: null }, [row])).toBeNull()
   })
 })
