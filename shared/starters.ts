@@ -54,11 +54,13 @@ export function primaryFuseAmps(spec: Pick<BankSpec, 'primary' | 'supply' | 'uni
 }
 
 /**
- * The main breaker: the next NEC 240.6(A) standard rating above the fuses, so that a fault in
- * the bank opens a fuse and the main stays in (coordination: common practice).
+ * The main breaker: the smallest NEC 240.6(A) standard rating of at least twice the fuses, so
+ * that a fault in the bank opens a fuse and the main stays in (coordination, common practice):
+ * a time-delay fuse takes tenths of a second at 15 × its rating, and the main's magnetic trip
+ * (10 × its own rating) must sit above the fault current the fuse clears.
  */
 export function mainBreakerAmps(fuseAmps: number): number {
-  const amps = STANDARD_AMPS.find((a) => a > fuseAmps)
+  const amps = STANDARD_AMPS.find((a) => a >= 2 * fuseAmps)
   if (amps === undefined) throw new Error(`no standard breaker above ${fuseAmps} A`)
   return amps
 }

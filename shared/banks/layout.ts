@@ -29,6 +29,8 @@ export const NODE_BOX: Record<ComponentKind | 'other', { width: number; height: 
   transformer: { width: 220, height: 200 },
   load: { width: 180, height: 90 },
   voltmeter: { width: 180, height: 90 },
+  ammeter: { width: 180, height: 90 },
+  'rotation-meter': { width: 200, height: 100 },
   output: { width: 200, height: 180 },
   ground: { width: 160, height: 90 },
   other: { width: 220, height: 200 },

@@ -38,6 +38,14 @@ function positive(field: string, max: number, unit = ''): Rule {
   return (v) => (v > 0 ? (v <= max ? undefined : tooBig) : tooSmall)
 }
 
+/** Greater than 0 (the message for 0 and below), at least `min` and at most `max`. */
+function atLeast(field: string, min: number, max: number, unit: string): Rule {
+  const tooSmall = `${field} must be greater than 0`
+  const belowMin = `${field} must be at least ${min}${unit}`
+  const tooBig = `${field} must be at most ${max}${unit}`
+  return (v) => (v > 0 ? (v < min ? belowMin : v <= max ? undefined : tooBig) : tooSmall)
+}
+
 function bounded(field: string, min: number, max: number): Rule {
   const error = `${field} must be between ${min} and ${max}`
   return (v) => (v >= min && v <= max ? undefined : error)
@@ -91,6 +99,11 @@ function ruled<T extends z.ZodObject>(schema: T, rules: Rules, more?: (value: Re
   ) as T
 }
 
+export const FUSE_CURVES = ['time-delay', 'fast-acting'] as const
+export type FuseCurve = (typeof FUSE_CURVES)[number]
+/** IEEE C57.12.00 bushing layouts: X1 beside H1 (subtractive) or diagonally across (additive). */
+export const POLARITIES = ['subtractive', 'additive'] as const
+
 const num = (field: string) => z.number({ error: `${field} must be a number` })
 const id = z.string({ error: 'id must be a string' })
 
@@ -109,8 +122,9 @@ export const SupplySchema = ruled(
     sourceOhms: z.object({ r: num('sourceOhms.r'), x: num('sourceOhms.x') }).default(() => ({ r: 0.02, x: 0.05 })),
   }),
   {
-    lineVolts: positive('lineVolts', 1_000_000, ' V'),
-    hz: positive('hz', 1000, ' Hz'),
+    lineVolts: atLeast('lineVolts', 1, 1_000_000, ' V'),
+    // a supply of under 1 Hz is no power system, and keeps a denormal out of every reactance
+    hz: atLeast('hz', 1, 1000, ' Hz'),
     sourceOhms: { r: bounded('sourceOhms.r', 0, 1e6), x: bounded('sourceOhms.x', 0, 1e6) },
   },
 )
@@ -122,8 +136,10 @@ export const BreakerSchema = ruled(
     poles: z.literal([1, 2, 3], { error: 'poles must be 1, 2 or 3' }).default(() => 3 as const),
     amps: num('amps'),
     closed: z.boolean({ error: 'closed must be true or false' }).default(() => false),
+    // (1.1) false: a disconnect or tie switch that never operates on its own
+    trips: z.boolean({ error: 'trips must be true or false' }).default(() => true),
   }),
-  { amps: positive('amps', 100_000, ' A') },
+  { amps: atLeast('amps', 0.01, 100_000, ' A') },
 )
 
 export const FuseSchema = ruled(
@@ -132,8 +148,11 @@ export const FuseSchema = ruled(
     kind: z.literal('fuse'),
     amps: num('amps'),
     blown: z.boolean({ error: 'blown must be true or false' }).default(() => false),
+    // (1.1) the fuse's time-current class (shared/engine/protection.ts)
+    curve: z.enum(FUSE_CURVES, { error: 'curve must be "time-delay" or "fast-acting"' }).default(() => 'time-delay' as const),
   }),
-  { amps: positive('amps', 100_000, ' A') },
+  // the smallest fuses made are 1/32 A; a smaller rating would put an overflow in the study
+  { amps: atLeast('amps', 0.01, 100_000, ' A') },
 )
 
 export const TransformerSchema = ruled(
@@ -149,14 +168,31 @@ export const TransformerSchema = ruled(
     impedancePercent: num('impedancePercent').default(() => 3),
     xOverR: num('xOverR').default(() => 1.5),
     compensationPercent: num('compensationPercent').default(() => 0),
+    // (1.1) the exciting branch, the primary tap and the bushing layout
+    excitingPercent: num('excitingPercent').default(() => 1),
+    coreLossPercent: num('coreLossPercent').default(() => 0.2),
+    tapPercent: num('tapPercent').default(() => 0),
+    polarity: z.enum(POLARITIES, { error: 'polarity must be "subtractive" or "additive"' }).default(() => 'subtractive' as const),
   }),
   {
-    kva: positive('kva', 100_000, ' kVA'),
+    // 1 VA is below the smallest control transformer; smaller would overflow the admittances
+    kva: atLeast('kva', 0.001, 100_000, ' kVA'),
     primaryVolts: positive('primaryVolts', 1_000_000, ' V'),
     secondaryVolts: { each: positive('secondaryVolts', 1_000_000, ' V') },
     impedancePercent: bounded('impedancePercent', 0.01, 50),
     xOverR: bounded('xOverR', 0, 100),
     compensationPercent: bounded('compensationPercent', -20, 20),
+    // 0.01 % is all but an ideal core; 0 would leave a floating star point to the leaks alone
+    excitingPercent: bounded('excitingPercent', 0.01, 50),
+    coreLossPercent: bounded('coreLossPercent', 0, 50),
+    tapPercent: bounded('tapPercent', -20, 20),
+  },
+  (v, out) => {
+    const exc = v.excitingPercent
+    const loss = v.coreLossPercent
+    if (typeof exc === 'number' && typeof loss === 'number' && Number.isFinite(exc) && loss > exc) {
+      out.push({ path: ['coreLossPercent'], message: `coreLossPercent must not exceed excitingPercent (${exc}): the core loss is part of the exciting current`, input: loss })
+    }
   },
 )
 
@@ -187,15 +223,19 @@ export const LoadSchema = ruled(
   },
 )
 export const VoltmeterSchema = ruled(z.object({ id, kind: z.literal('voltmeter') }), {})
+/** (1.1) zero ohms in series, reading the current from a to b. */
+export const AmmeterSchema = ruled(z.object({ id, kind: z.literal('ammeter') }), {})
+/** (1.1) three 10 MΩ leads to a common point, reading the phase sequence of a, b, c. */
+export const RotationMeterSchema = ruled(z.object({ id, kind: z.literal('rotation-meter') }), {})
 export const OutputSchema = ruled(z.object({ id, kind: z.literal('output') }), {})
 export const GroundSchema = ruled(z.object({ id, kind: z.literal('ground') }), {})
 
-export const COMPONENT_KINDS = ['supply', 'breaker', 'fuse', 'transformer', 'load', 'voltmeter', 'output', 'ground'] as const
+export const COMPONENT_KINDS = ['supply', 'breaker', 'fuse', 'transformer', 'load', 'voltmeter', 'ammeter', 'rotation-meter', 'output', 'ground'] as const
 export type ComponentKind = (typeof COMPONENT_KINDS)[number]
 
 export const ComponentSchema = z.discriminatedUnion(
   'kind',
-  [SupplySchema, BreakerSchema, FuseSchema, TransformerSchema, LoadSchema, VoltmeterSchema, OutputSchema, GroundSchema],
+  [SupplySchema, BreakerSchema, FuseSchema, TransformerSchema, LoadSchema, VoltmeterSchema, AmmeterSchema, RotationMeterSchema, OutputSchema, GroundSchema],
   { error: (issue) => (issue.code === 'invalid_union' ? `kind must be one of ${COMPONENT_KINDS.join(', ')}` : undefined) },
 )
 
@@ -244,6 +284,8 @@ export type Fuse = z.infer<typeof FuseSchema>
 export type Transformer = z.infer<typeof TransformerSchema>
 export type Load = z.infer<typeof LoadSchema>
 export type Voltmeter = z.infer<typeof VoltmeterSchema>
+export type Ammeter = z.infer<typeof AmmeterSchema>
+export type RotationMeter = z.infer<typeof RotationMeterSchema>
 export type Output = z.infer<typeof OutputSchema>
 export type Ground = z.infer<typeof GroundSchema>
 export type Component = z.infer<typeof ComponentSchema>
@@ -259,6 +301,7 @@ const BREAKER_POLES = [[], ['L1', 'T1'], ['L1', 'L2', 'T1', 'T2'], ['L1', 'L2', 
 const ONE_COIL = ['H1', 'H2', 'X1', 'X2'] as const
 const TWO_COILS = ['H1', 'H2', 'X1', 'X2', 'X3', 'X4'] as const
 const TWO_ENDS = ['a', 'b'] as const
+const THREE_LEADS = ['a', 'b', 'c'] as const
 const OUTPUT = ['a', 'b', 'c', 'n'] as const
 const GROUND = ['g'] as const
 const NONE = [] as const
@@ -275,7 +318,10 @@ export function terminalsOf(c: { kind: string; poles?: unknown; secondaryVolts?:
     case 'fuse':
     case 'load':
     case 'voltmeter':
+    case 'ammeter':
       return TWO_ENDS
+    case 'rotation-meter':
+      return THREE_LEADS
     case 'output':
       return OUTPUT
     case 'ground':

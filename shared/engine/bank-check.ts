@@ -40,9 +40,22 @@ function nominalPotentials(topo: Topology): (node: number) => C | null {
   }
 }
 
-/** The open-circuit direction of each secondary edge (dot minus undot), or null when its unit is not fed. */
-function edgeDirections(topo: Topology): (e: BankEdge) => C | null {
-  const at = nominalPotentials(topo)
+const potentialCache = new WeakMap<Topology, (node: number) => C | null>()
+
+/** nominalPotentials, worked out once per topology (they depend on the wiring alone). */
+export function nominalPotentialsOf(topo: Topology): (node: number) => C | null {
+  let at = potentialCache.get(topo)
+  if (!at) potentialCache.set(topo, (at = nominalPotentials(topo)))
+  return at
+}
+
+/**
+ * The open-circuit EMF of each secondary edge (dot minus undot) as the supply's EMFs and the
+ * wiring put it, or null when its unit is not fed: what the unit drives whatever the load or
+ * a fault does to its terminal voltages.
+ */
+export function edgeDirections(topo: Topology): (e: BankEdge) => C | null {
+  const at = nominalPotentialsOf(topo)
   return (e) => {
     const unit = topo.unitById.get(e.unit)!
     const primary = unit.windings[0]!

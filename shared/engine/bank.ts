@@ -190,20 +190,36 @@ export function sideGraphs(topo: Topology, merge: (n: number) => number): { prim
   }
 }
 
-function nodeRoles(topo: Topology, node: number): { neutral: boolean; line: boolean } {
-  if (node < 0) return { neutral: true, line: false }
+const groundLabelCache = new WeakMap<Topology, string[]>()
+
+/** The terminals on ground itself (a wye supply's N, a ground part's g, whatever is wired to them). */
+function groundLabels(topo: Topology): string[] {
+  let labels = groundLabelCache.get(topo)
+  if (!labels) {
+    labels = topo.terminalNames.filter((_, k) => topo.terminalNodes[k]! < 0)
+    groundLabelCache.set(topo, labels)
+  }
+  return labels
+}
+
+/**
+ * What the terminals at a node say it is: a neutral (an output's n, a supply's N), a line (an
+ * output's a–c, a supply's A–C), grounded (a ground part, or ground itself).
+ */
+export function nodeRoles(topo: Topology, node: number): { neutral: boolean; line: boolean; grounded: boolean } {
   let neutral = false
   let line = false
-  for (const label of topo.nodeLabels[node]!) {
+  let grounded = node < 0
+  for (const label of node < 0 ? groundLabels(topo) : topo.nodeLabels[node]!) {
     const dot = label.indexOf('.')
     const id = dot < 0 ? label : label.slice(0, dot)
     const t = dot < 0 ? undefined : label.slice(dot + 1) // ids hold no dot
     const kind = topo.byId.get(id)?.kind
     if (kind === 'output') (t === 'n' ? (neutral = true) : (line = true))
     if (kind === 'supply') (t === 'N' ? (neutral = true) : (line = true))
-    if (kind === 'ground') neutral = true
+    if (kind === 'ground') grounded = true
   }
-  return { neutral, line }
+  return { neutral, line, grounded }
 }
 
 export function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: number) => number): Connection {
@@ -234,19 +250,31 @@ export function classifyGroup(topo: Topology, group: BankEdge[], merge: (n: numb
     }
   }
   const count = (d: number) => degree.reduce((c, x) => c + (x === d ? 1 : 0), 0)
+  // every end meeting there is alike: all dotted, or all undotted
+  const alike = (k: number) => dots[k] === 0 || dots[k] === degree[k]
   const starLike = (k: number) => {
     const roles = nodeRoles(topo, rawNode[k]!)
-    if (roles.neutral) return true
+    if (roles.neutral || roles.grounded) return true
     if (roles.line) return false
-    // every end meeting there is alike: all dotted, or all undotted
-    return dots[k] === 0 || dots[k] === degree[k]
+    return alike(k)
+  }
+  /**
+   * The middle of two units: a line brought out makes it a corner of an open delta, a neutral
+   * brought out a star point; a ground alone says neither (a corner-grounded open delta grounds
+   * a line), so the ends meeting there decide, as they would for an ungrounded one.
+   */
+  const openCentreIsStar = (k: number) => {
+    const roles = nodeRoles(topo, rawNode[k]!)
+    if (roles.line) return false
+    if (roles.neutral) return true
+    return alike(k)
   }
   const size = nodes.length
   if (group.length === 2) {
     const centre = degree.indexOf(2)
     // two units across the same pair of nodes are in parallel: not a three-phase connection
     if (size !== 3 || centre < 0) return 'other'
-    return starLike(centre) ? 'open-wye' : 'open-delta'
+    return openCentreIsStar(centre) ? 'open-wye' : 'open-delta'
   }
   if (size === 3 && count(2) === 3) return 'delta'
   const centre = degree.indexOf(3)

@@ -11,14 +11,17 @@
  *   region (it would open in seconds to minutes).
  */
 import type { BankEdge, DeltaLoop, SideGraph } from './bank'
+import { edgeDirections } from './bank-check'
 import { nodeOfTerminal, type StageSolution, type Topology, type Unit } from './network'
-import { operatingTime, type DeviceKind } from './protection'
+import { curveOf, operatingTime } from './protection'
 import type { ClosingCheck, Hazard } from './types'
 
 export const CLOSING_TOLERANCE = 0.05
 export const OVERVOLTAGE_LIMIT = 1.1
 export const FAULT_MULTIPLE = 3
 export const OVERLOAD_LIMIT = 1.05
+/** a fuse or breaker at 10 × its rating carries a fault, whatever its curve does with it */
+export const INSTANTANEOUS_HAZARD_MULTIPLE = 10
 
 type C = [number, number]
 const sub = (a: C, b: C): C => [a[0] - b[0], a[1] - b[1]]
@@ -72,10 +75,19 @@ const short = (terminal: string) => terminal.split('.')[1]!
 export function loopHazards(ctx: HazardContext): { hazards: Hazard[]; checks: ClosingCheck[] } {
   const hazards: Hazard[] = []
   const checks: ClosingCheck[] = []
+  const nominal = edgeDirections(ctx.topo)
   for (const loop of ctx.loops) {
-    const emfs = loop.path.map(({ edge, sign }) => scale(edgeEmf(ctx, edge), sign))
+    const measured = loop.path.map(({ edge, sign }) => scale(edgeEmf(ctx, edge), sign))
+    const energized = measured.reduce((s, e) => s + abs(e), 0) / measured.length >= 1
+    // which unit is backwards is judged from the EMFs the wiring puts around the loop, not from
+    // the coil voltages: a reversed unit in a closed delta collapses those under its own fault
+    // current, the more so the weaker the source
+    const wired = loop.path.map(({ edge, sign }) => {
+      const d = nominal(edge)
+      return d ? scale(d, sign) : null
+    })
+    const emfs = wired.every((e) => e !== null) ? (wired as C[]) : measured
     const mean = emfs.reduce((s, e) => s + abs(e), 0) / emfs.length
-    const energized = mean >= 1
     const coilVolts = Math.max(...loop.path.map(({ edge }) => edgeRatedVolts(ctx, edge)))
     const sum = emfs.reduce(addc, [0, 0] as C)
     const gapVolts = loop.gap ? abs(sub(voltage(ctx, loop.gap[0]), voltage(ctx, loop.gap[1]))) : abs(sum)
@@ -247,10 +259,11 @@ export function deviceHazards(ctx: HazardContext): Hazard[] {
   for (const [id, amps] of ctx.deviceAmps) {
     const c = ctx.topo.byId.get(id)!
     if (c.kind !== 'fuse' && c.kind !== 'breaker') continue
-    const op = operatingTime(c.kind as DeviceKind, c.amps, amps, ctx.hz)
+    if (c.kind === 'breaker' && !c.trips) continue // a disconnect: nothing to operate
+    const op = operatingTime(curveOf(c), c.amps, amps, ctx.hz)
     if (!op) continue
     const what = c.kind === 'fuse' ? 'fuse' : 'breaker'
-    if (op.region === 'instantaneous') {
+    if (op.region === 'instantaneous' || amps >= INSTANTANEOUS_HAZARD_MULTIPLE * c.amps) {
       hazards.push({
         code: 'fault-current',
         severity: 'danger',
@@ -258,7 +271,7 @@ export function deviceHazards(ctx: HazardContext): Hazard[] {
         amps,
         message:
           `${what} ${id} carries ${fmtA(amps)}, ${(amps / c.amps).toFixed(0)} × its ${fmtA(c.amps)} rating: a short circuit. ` +
-          `It would ${c.kind === 'fuse' ? 'blow' : 'trip'} at once (about ${(op.seconds * 1000).toFixed(0)} ms). Find the fault before re-energizing.`,
+          `It would ${c.kind === 'fuse' ? 'blow' : 'trip'} ${op.seconds < 0.05 ? 'at once' : 'within'} (about ${formatSeconds(op.seconds)}). Find the fault before re-energizing.`,
       })
     } else {
       hazards.push({

@@ -8,8 +8,13 @@
  * core's volts-per-turn gives the unit's nodal admittance
  *     Y = Σ y_k d_k d_kᵀ − c cᵀ / s,   c = Σ n_k y_k d_k,   s = Σ n_k² y_k,
  * where d_k is the incidence vector of winding k (+1 at its dotted terminal), y_k its series
- * admittance and n_k its turns. Supply phases keep their current as an unknown, so an ideal
- * (zero-impedance) source is allowed.
+ * admittance and n_k its turns. The exciting branch (circuit-format.md 1.1: a shunt across the
+ * ideal core on the primary side, between the two halves of the series impedance) draws
+ * ampere-turns Y_m·e from the core, so the balance Σ n_k I_k = Y_m·e only adds Y_m to s:
+ *     s = Σ n_k² y_k + Y_m.
+ * It is what holds a floating star point near the centre, as the cores do in a real bank,
+ * instead of the 1 GΩ leaks. Supply phases and ammeters keep their current as an unknown,
+ * so an ideal (zero-impedance) source and a zero-ohm ammeter are allowed.
  */
 import Complex from 'complex.js'
 import type { Circuit, Component, Transformer } from '../circuit/schema'
@@ -23,6 +28,8 @@ export const LEAK_SIEMENS = 1e-9
 export const VOLTMETER_OHMS = 10e6
 /** Resistance of a closed breaker pole or an intact fuse: "a few milliohms". */
 export const CLOSED_CONTACT_OHMS = 0.002
+/** Each lead of a rotation meter to its common point (circuit-format.md 1.1: 10 MΩ). */
+export const ROTATION_LEAD_OHMS = 10e6
 
 export class CircuitSolveError extends Error {
   constructor(
@@ -53,6 +60,13 @@ export interface Unit {
   id: string
   spec: Transformer
   windings: Winding[]
+  /**
+   * the exciting branch as ampere-turns per volt-per-turn of the core (G − jB): at rated flux
+   * (1 V per turn, the turns being the nameplate volts) it draws excitingPercent of the rated
+   * primary current, coreLossPercent of the kVA of it as real power
+   */
+  magRe: number
+  magIm: number
   /** the node of each of its terminals: node.X3 */
   node: Record<string, number>
 }
@@ -105,6 +119,12 @@ export interface Topology {
   poles: SwitchPole[]
   loads: { id: string; a: number; b: number; y: Complex }[]
   meters: { id: string; a: number; b: number }[]
+  /** (1.1) zero-ohm ammeters: each keeps its current (a to b) as an unknown after the supply phases'; a meter with both ends on one node reads 0 */
+  ammeters: { id: string; a: number; b: number }[]
+  /** (1.1) rotation meters: three leads to a hidden common node */
+  rotationMeters: { id: string; a: number; b: number; c: number; common: number }[]
+  /** each node's conductance to ground (LEAK_SIEMENS unless a test scales it) */
+  leakSiemens: number
   /** what bank.ts reads from the wiring alone, worked out there on first use */
   bankCache?: unknown
 }
@@ -176,6 +196,7 @@ class NetworkTopology implements Topology {
   readonly unitById: Map<string, Unit>
   readonly nodeCount: number
   bankCache?: unknown = undefined
+  leakSiemens = LEAK_SIEMENS
   #terminalNode: Map<string, number> | undefined = undefined
   #nodeLabels: string[][] | undefined = undefined
 
@@ -192,6 +213,8 @@ class NetworkTopology implements Topology {
     readonly poles: SwitchPole[],
     readonly loads: Topology['loads'],
     readonly meters: Topology['meters'],
+    readonly ammeters: Topology['ammeters'],
+    readonly rotationMeters: Topology['rotationMeters'],
   ) {
     this.unitById = new Map(units.map((u) => [u.id, u]))
     this.nodeCount = nodeTerminalCount.length
@@ -217,6 +240,15 @@ class NetworkTopology implements Topology {
     }
     return this.#terminalNode
   }
+}
+
+/** The exciting branch of a unit in ampere-turns per volt-per-turn (see Unit.magRe). */
+export function excitingAdmittance(t: Transformer): Phasor {
+  const va = t.kva * 1000
+  const exciting = t.excitingPercent / 100
+  const loss = Math.min(t.coreLossPercent / 100, exciting)
+  // at 1 V per turn: loss·S watts and √(exc² − loss²)·S vars, lagging
+  return { re: loss * va, im: -Math.sqrt(exciting * exciting - loss * loss) * va }
 }
 
 /**
@@ -296,6 +328,8 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
   const poles: SwitchPole[] = []
   const loads: Topology['loads'] = []
   const meters: Topology['meters'] = []
+  const ammeters: Topology['ammeters'] = []
+  const rotationMeters: Topology['rotationMeters'] = []
   for (let k = 0; k < comps.length; k++) {
     const c = comps[k]!
     const b0 = base[k]!
@@ -336,7 +370,8 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
           const y = inverse(zw.re, zw.im)
           windings.push({ name, dot, undot, a: nodeOf[at]!, b: nodeOf[at + 1]!, turns, ratedVolts: volts, ratedAmps: amps, yRe: y.re, yIm: y.im })
         }
-        add('H1-H2', 'H1', 'H2', b0, c.primaryVolts, c.primaryVolts, rated.primary, z.primary)
+        // a tap above nominal puts more primary turns in use (circuit-format.md 1.1)
+        add('H1-H2', 'H1', 'H2', b0, c.primaryVolts * (1 + c.tapPercent / 100), c.primaryVolts, rated.primary, z.primary)
         add('X1-X2', 'X1', 'X2', b0 + 2, c.secondaryVolts[0]! * gain, c.secondaryVolts[0]!, rated.coils[0]!, z.coils[0]!)
         if (c.secondaryVolts.length === 2) {
           add('X3-X4', 'X3', 'X4', b0 + 4, c.secondaryVolts[1]! * gain, c.secondaryVolts[1]!, rated.coils[1]!, z.coils[1]!)
@@ -344,7 +379,8 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
         const node: Record<string, number> = {}
         const names = terminalsOf(c)
         for (let j = 0; j < names.length; j++) node[names[j]!] = nodeOf[b0 + j]!
-        units.push({ id: c.id, spec: c, windings, node })
+        const mag = excitingAdmittance(c)
+        units.push({ id: c.id, spec: c, windings, node, magRe: mag.re, magIm: mag.im })
         break
       }
       case 'breaker':
@@ -362,9 +398,19 @@ export function buildTopology(circuit: Circuit, terminals?: TerminalIndex): Topo
       case 'voltmeter':
         meters.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
         break
+      case 'ammeter':
+        ammeters.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]! })
+        break
+      case 'rotation-meter': {
+        const common = terminalCount.length
+        terminalCount.push(0)
+        extraLabels[common] = `${c.id} (common point)`
+        rotationMeters.push({ id: c.id, a: nodeOf[b0]!, b: nodeOf[b0 + 1]!, c: nodeOf[b0 + 2]!, common })
+        break
+      }
     }
   }
-  const topo = new NetworkTopology(circuit, byId, index, terminalNames, nodeOf, terminalCount, extraLabels, units, phases, poles, loads, meters)
+  const topo = new NetworkTopology(circuit, byId, index, terminalNames, nodeOf, terminalCount, extraLabels, units, phases, poles, loads, meters, ammeters, rotationMeters)
   checkSourceLoops(topo)
   return topo
 }
@@ -375,10 +421,21 @@ export function nodeOfTerminal(topo: Topology, terminal: string): number | undef
   return k === undefined ? undefined : topo.terminalNodes[k]
 }
 
-/** Ideal (zero-impedance) supply phases that close a loop have no solution: say which. */
+/** Ideal (zero-impedance) supply phases and ammeters that close a loop have no solution: say which. */
 function checkSourceLoops(topo: Topology) {
   const uf = new UnionFind(topo.nodeCount + 1)
   const key = (n: number) => (n < 0 ? topo.nodeCount : n)
+  for (const m of topo.ammeters) {
+    if (m.a === m.b) continue // shorted by a jumper: it reads 0
+    if (!uf.union(key(m.a), key(m.b))) {
+      const where = m.a >= 0 ? topo.nodeLabels[m.a]!.join(', ') : 'ground'
+      throw new CircuitSolveError(
+        `ammeter ${m.id} closes a loop of zero-ohm paths (other ammeters or an ideal supply) at ${where}: the current has no one way to divide. ` +
+          `Put each ammeter in series with a conductor, not in parallel with another.`,
+        [m.id],
+      )
+    }
+  }
   const seen: SupplyPhase[] = []
   for (const ph of topo.phases) {
     if (ph.z.re !== 0 || ph.z.im !== 0) continue
@@ -411,6 +468,8 @@ export interface StageSolution {
   units: UnitSolution[]
   /** supply phase currents out of the line terminal, in topology order */
   phaseCurrent: { re: number; im: number }[]
+  /** each ammeter's current from a to b, in topology order */
+  ammeterCurrent: { re: number; im: number }[]
   /** current through each conducting switch pole (0 for open), in topology order */
   poleCurrent: { re: number; im: number }[]
 }
@@ -418,8 +477,10 @@ export interface StageSolution {
 /** Solves the network with the given breakers and fuses open (removed). */
 export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolution {
   const n = topo.nodeCount
-  const sys = new ComplexSymmetricSystem(n + topo.phases.length, n)
-  for (let i = 0; i < n; i++) sys.add(i, i, LEAK_SIEMENS, 0)
+  const firstAmmeter = n + topo.phases.length
+  const leak = topo.leakSiemens
+  const sys = new ComplexSymmetricSystem(firstAmmeter + topo.ammeters.length, n, leak)
+  for (let i = 0; i < n; i++) sys.add(i, i, leak, 0)
 
   topo.phases.forEach((ph, k) => {
     // row of the phase current I (out of the line terminal): V(star) − V(line) − Z·I = −E
@@ -433,6 +494,19 @@ export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolu
   for (const p of topo.poles) if (!open.has(p.device)) sys.addAdmittance(p.a, p.b, gClosed, 0)
   for (const l of topo.loads) sys.addAdmittance(l.a, l.b, l.y.re, l.y.im)
   for (const m of topo.meters) sys.addAdmittance(m.a, m.b, 1 / VOLTMETER_OHMS, 0)
+  for (const r of topo.rotationMeters) {
+    for (const lead of [r.a, r.b, r.c]) sys.addAdmittance(lead, r.common, 1 / ROTATION_LEAD_OHMS, 0)
+  }
+  topo.ammeters.forEach((m, k) => {
+    // the current I from a to b: it leaves node a, enters node b, and V(a) − V(b) = 0
+    const row = firstAmmeter + k
+    if (m.a === m.b) {
+      sys.add(row, row, 1, 0) // shorted: I = 0
+      return
+    }
+    if (m.a >= 0) sys.add(row, m.a, 1, 0)
+    if (m.b >= 0) sys.add(row, m.b, -1, 0)
+  })
   for (const u of topo.units) stampUnit(sys, u)
 
   let x: { re: number[]; im: number[] }
@@ -448,6 +522,7 @@ export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolu
   const units: UnitSolution[] = new Array<UnitSolution>(topo.units.length)
   for (let k = 0; k < units.length; k++) units[k] = unitSolution(topo.units[k]!, vRe, vIm)
   const phaseCurrent = topo.phases.map((_, k) => ({ re: x.re[n + k]!, im: x.im[n + k]! }))
+  const ammeterCurrent = topo.ammeters.map((_, k) => ({ re: x.re[firstAmmeter + k]!, im: x.im[firstAmmeter + k]! }))
   const poleCurrent: { re: number; im: number }[] = new Array(topo.poles.length)
   for (let k = 0; k < poleCurrent.length; k++) {
     const p = topo.poles[k]!
@@ -462,7 +537,7 @@ export function solveStage(topo: Topology, open: ReadonlySet<string>): StageSolu
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(vRe[i]!) || !Number.isFinite(vIm[i]!)) throw singularError(topo, i)
   }
-  return { vRe, vIm, units, phaseCurrent, poleCurrent }
+  return { vRe, vIm, units, phaseCurrent, ammeterCurrent, poleCurrent }
 }
 
 function stampUnit(sys: ComplexSymmetricSystem, u: Unit) {
@@ -491,6 +566,8 @@ function stampUnit(sys: ComplexSymmetricSystem, u: Unit) {
     sRe += w.turns * w.turns * w.yRe
     sIm += w.turns * w.turns * w.yIm
   }
+  sRe += u.magRe
+  sIm += u.magIm
   const sm = sRe * sRe + sIm * sIm
   const invRe = sRe / sm
   const invIm = -sIm / sm
@@ -524,6 +601,8 @@ function unitSolution(u: Unit, vRe: readonly number[], vIm: readonly number[]): 
     sRe += w.turns * w.turns * w.yRe
     sIm += w.turns * w.turns * w.yIm
   }
+  sRe += u.magRe
+  sIm += u.magIm
   const sm = sRe * sRe + sIm * sIm
   const eRe = (numRe * sRe + numIm * sIm) / sm
   const eIm = (numIm * sRe - numRe * sIm) / sm

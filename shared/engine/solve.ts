@@ -7,9 +7,18 @@ import type { Circuit } from '../circuit/schema'
 import { bankProblems } from './bank-check'
 import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } from './bank'
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
+import { backfeedHazards, neutralShiftHazards, outputVoltageHazards } from './hazards-output'
+import { inrushCautions } from './inrush'
 import { buildTopology, nodeOfTerminal, solveStage, type StageSolution, type Topology } from './network'
-import { operatingTime, type DeviceKind } from './protection'
-import type { BankSummary, ClosingCheck, DeviceReading, Hazard, ProtectionEvent, Reading, SolveResult } from './types'
+import { curveOf, operatingTime } from './protection'
+import type { BankSummary, ClosingCheck, DeviceReading, Hazard, MeterReading, ProtectionEvent, Reading, RotationReading, SolveResult } from './types'
+import { vectorGroupOf } from './vector-group'
+
+/** Settings of the model itself, for tests that show a result does not depend on them. */
+export interface EngineOptions {
+  /** every node's conductance to ground (circuit-format.md: 1 GΩ, i.e. 1e-9 S) */
+  leakSiemens?: number
+}
 
 export class CircuitValidationError extends Error {
   constructor(readonly errors: CircuitError[]) {
@@ -52,10 +61,10 @@ export function solve(input: unknown): SolveResult {
   return solveDetailed(input).result
 }
 
-export function solveDetailed(input: unknown): SolveDetail {
+export function solveDetailed(input: unknown, options?: EngineOptions): SolveDetail {
   const parsed = parseCircuitIndexed(input)
   if (!parsed.ok) throw new CircuitValidationError(parsed.errors)
-  return solveCircuit(parsed.circuit, parsed.terminals)
+  return solveCircuit(parsed.circuit, parsed.terminals, options)
 }
 
 function deviceAmps(topo: Topology, sol: StageSolution, open: ReadonlySet<string>): Map<string, number> {
@@ -77,12 +86,25 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
   const graphs = sideGraphs(topo, merge)
   const ctx: HazardContext = { topo, sol, secondary: graphs.secondary, loops: deltaLoops(graphs.secondary, merge), merge, deviceAmps: amps, hz }
   const loops = loopHazards(ctx)
-  return { hazards: [...loops.hazards, ...windingHazards(ctx), ...deviceHazards(ctx)], checks: loops.checks, merge, graphs }
+  const hazards = [...loops.hazards, ...windingHazards(ctx), ...deviceHazards(ctx)]
+  const primary = classifySide(topo, graphs.primary, merge)
+  const secondary = classifySide(topo, graphs.secondary, merge)
+  const problems = bankProblems(topo, graphs, merge, primary, secondary)
+  const out = { topo, sol, open, merge, graphs }
+  hazards.push(...backfeedHazards(out), ...neutralShiftHazards(out))
+  // with a delta's corner open the bank is mid closing-check: the loop hazards speak for it,
+  // and the output is not to be loaded until the corner is closed
+  if (loops.checks.length === 0) hazards.push(...outputVoltageHazards(out, secondary, problems))
+  return { hazards, checks: loops.checks, merge, graphs, connections: { primary, secondary }, problems }
 }
 
+/** Two operating times this close are one instant: the devices open together. */
+const SAME_INSTANT = 1e-9
+
 /** Solves an already-validated document (defaults filled in). */
-export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex): SolveDetail {
+export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex, options?: EngineOptions): SolveDetail {
   const topo = buildTopology(circuit, terminals)
+  if (options?.leakSiemens !== undefined) topo.leakSiemens = options.leakSiemens
   const firstSupply = circuit.components.find((c) => c.kind === 'supply')
   const hz = firstSupply?.kind === 'supply' ? firstSupply.hz : 60
 
@@ -121,32 +143,39 @@ export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex): Solve
         hazards.push(h)
       }
     }
-    // the device that operates first, with the stress it has already taken
-    let next: { id: string; amps: number; after: number; region: ProtectionEvent['region']; rating: number } | undefined
+    // the devices that operate first, with the stress each has already taken; those that
+    // operate at the same instant open together
+    const candidates: { id: string; amps: number; after: number; region: ProtectionEvent['region']; ratio: number }[] = []
     const times = new Map<string, number>()
+    let soonest = Infinity
     for (const [id, i] of amps) {
       const c = topo.byId.get(id)!
       if (c.kind !== 'fuse' && c.kind !== 'breaker') continue
-      const op = operatingTime(c.kind as DeviceKind, c.amps, i, hz)
+      if (c.kind === 'breaker' && !c.trips) continue // a disconnect or tie switch
+      const op = operatingTime(curveOf(c), c.amps, i, hz)
       if (!op) continue
       times.set(id, op.seconds)
       const after = Math.max(0, (1 - (damage.get(id) ?? 0)) * op.seconds)
-      const better =
-        !next || after < next.after - 1e-12 || (Math.abs(after - next.after) <= 1e-12 && (i / c.amps > next.amps / next.rating || (i / c.amps === next.amps / next.rating && id < next.id)))
-      if (better) next = { id, amps: i, after, region: op.region, rating: c.amps }
+      candidates.push({ id, amps: i, after, region: op.region, ratio: i / c.amps })
+      if (after < soonest) soonest = after
     }
-    if (!next) break
-    for (const [id, t] of times) damage.set(id, (damage.get(id) ?? 0) + next.after / t)
-    seconds += next.after
-    const kind = topo.byId.get(next.id)!.kind
-    const state = kind === 'fuse' ? 'blown' : 'tripped'
-    events.push({ device: next.id, action: 'opened', amps: round(next.amps, 4), seconds: round(seconds, 6), state, region: next.region })
-    devices[next.id] = { state, amps: round(next.amps, 4) }
-    open.add(next.id)
+    if (candidates.length === 0) break
+    const batch = candidates.filter((c) => c.after <= soonest * (1 + SAME_INSTANT) + 1e-12)
+    batch.sort((x, y) => y.ratio - x.ratio || (x.id < y.id ? -1 : x.id > y.id ? 1 : 0))
+    for (const [id, t] of times) damage.set(id, (damage.get(id) ?? 0) + soonest / t)
+    seconds += soonest
+    for (const next of batch) {
+      const kind = topo.byId.get(next.id)!.kind
+      const state = kind === 'fuse' ? 'blown' : 'tripped'
+      events.push({ device: next.id, action: 'opened', amps: round(next.amps, 4), seconds: round(seconds, 6), state, region: next.region })
+      devices[next.id] = { state, amps: round(next.amps, 4) }
+      open.add(next.id)
+    }
   }
 
   // the last stage is the settled state: nothing opened after it was solved
-  const result = buildResult(topo, sol, amps, devices, events, hazards, checks, stage.merge, stage.graphs)
+  const result = buildResult(topo, sol, amps, devices, events, hazards, checks, stage)
+  result.cautions = inrushCautions(topo, hz)
   return { topo, initial: initial!, final: sol, open, result }
 }
 
@@ -159,9 +188,9 @@ function buildResult(
   events: ProtectionEvent[],
   hazards: Hazard[],
   closingChecks: ClosingCheck[],
-  merge: (n: number) => number,
-  graphs: ReturnType<typeof sideGraphs>,
+  stage: ReturnType<typeof stageHazards>,
 ): SolveResult {
+  const { merge, graphs } = stage
   const V = (node: number): [number, number] => (node < 0 ? [0, 0] : [sol.vRe[node]!, sol.vIm[node]!])
   const vt = (terminal: string) => V(nodeOfTerminal(topo, terminal)!)
 
@@ -183,8 +212,17 @@ function buildResult(
   }
   const re = (node: number) => (node < 0 ? 0 : vRe[node]!)
   const im = (node: number) => (node < 0 ? 0 : vIm[node]!)
-  const meters: Record<string, Reading> = {}
+  const meters: Record<string, MeterReading> = {}
   for (const m of topo.meters) meters[m.id] = reading(re(m.a) - re(m.b), im(m.a) - im(m.b))
+  topo.ammeters.forEach((m, k) => {
+    const i = sol.ammeterCurrent[k]!
+    const r = reading(i.re, i.im)
+    meters[m.id] = { amps: r.volts, degrees: r.degrees }
+  })
+  for (const r of topo.rotationMeters) {
+    const lead = (n: number): [number, number] => [re(n) - re(r.common), im(n) - im(r.common)]
+    meters[r.id] = { sequence: phaseSequence(lead(r.a), lead(r.b), lead(r.c)) }
+  }
   const windings: SolveResult['windings'] = {}
   for (let ui = 0; ui < topo.units.length; ui++) {
     const u = topo.units[ui]!
@@ -211,13 +249,14 @@ function buildResult(
   }
 
   const bank: BankSummary = {
-    primary: classifySide(topo, graphs.primary, merge),
-    secondary: classifySide(topo, graphs.secondary, merge),
+    primary: stage.connections.primary,
+    secondary: stage.connections.secondary,
     coils: classifyCoils(topo),
     displacementDegrees: null,
     clock: null,
+    vectorGroup: null,
   }
-  const problems = bankProblems(topo, graphs, merge, bank.primary, bank.secondary)
+  const problems = stage.problems
   const energized = isEnergized(topo, merge)
   const output = topo.circuit.components.find((c) => c.kind === 'output')
   const supply = topo.circuit.components.find((c) => c.kind === 'supply')
@@ -233,8 +272,11 @@ function buildResult(
       while (d <= -180) d += 360
       while (d > 180) d -= 360
       bank.displacementDegrees = round(d, 2)
-      // IEC 60076-1: the clock number counts 30° steps of lag of the low side
-      bank.clock = (((Math.round(-d / 30) % 12) + 12) % 12) || 0
+      const group = problems.length === 0 && supply.kind === 'supply' ? vectorGroupOf(topo, graphs, merge, stage.connections, d, supply.rotation) : null
+      if (group) {
+        bank.clock = group.clock
+        bank.vectorGroup = group.vectorGroup
+      }
     }
   }
 
@@ -249,7 +291,29 @@ function buildResult(
     bank,
     closingChecks: closingChecks.map((c) => ({ ...c, volts: round(c.volts, 2) })),
     bankProblems: problems,
+    cautions: [],
   }
+}
+
+/** The three-phase set that makes ABC, ACB, or none (circuit-format.md 1.1). */
+const SEQUENCE_MIN_SHARE = 0.1
+/** the sequence that dominates must be this many times the other: leads about 120° apart */
+const SEQUENCE_DOMINANCE = 3
+
+export function phaseSequence(a: [number, number], b: [number, number], c: [number, number]): RotationReading['sequence'] {
+  const size = (z: [number, number]) => Math.hypot(z[0], z[1])
+  const largest = Math.max(size(a), size(b), size(c))
+  if (largest < 1e-6 || [a, b, c].some((z) => size(z) < SEQUENCE_MIN_SHARE * largest)) return 'none'
+  // symmetrical components: with h = 1∠120°, V+ = (a + h·b + h²·c) / 3 and V− = (a + h²·b + h·c) / 3
+  const h: [number, number] = [-0.5, Math.sqrt(3) / 2]
+  const h2: [number, number] = [-0.5, -Math.sqrt(3) / 2]
+  const mul = (x: [number, number], y: [number, number]): [number, number] => [x[0] * y[0] - x[1] * y[1], x[0] * y[1] + x[1] * y[0]]
+  const sum = (...zs: [number, number][]): [number, number] => zs.reduce((s, z) => [s[0] + z[0], s[1] + z[1]], [0, 0])
+  const positive = size(sum(a, mul(h, b), mul(h2, c)))
+  const negative = size(sum(a, mul(h2, b), mul(h, c)))
+  if (positive >= SEQUENCE_DOMINANCE * negative) return 'ABC'
+  if (negative >= SEQUENCE_DOMINANCE * positive) return 'ACB'
+  return 'none'
 }
 
 /** A transformer, load or output block sits on a node that a supply line reaches through closed contacts. */

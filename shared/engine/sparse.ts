@@ -94,6 +94,16 @@ export class ComplexSymmetricSystem {
   constructor(
     readonly size: number,
     private readonly lateFrom = size,
+    /**
+     * the least real part a node row's pivot can have: with a conductance of at least this to
+     * ground at every node and a passive network, the real part of the matrix is positive
+     * definite, and so is that of every Schur complement (Re(y*Sy) = Re(x*Ax) for the x that
+     * eliminates the rest), so each pivot's real part is at least the smallest leak. A pivot
+     * computed below it has lost its digits to cancellation (a floating part held only by its
+     * leaks, beside units of very low impedance): it is set to the floor, which only moves the
+     * floating part's common potential, on which no reading between its nodes depends
+     */
+    private readonly nodePivotFloor = 0,
   ) {
     this.rhsRe = zeros(size)
     this.rhsIm = zeros(size)
@@ -236,10 +246,11 @@ export class ComplexSymmetricSystem {
     const cRe = zeros(n)
     const cIm = zeros(n)
     for (let k = 0; k < n; k++) {
-      const pr = aRe[k * n + k]!
+      let pr = aRe[k * n + k]!
       const pi = aIm[k * n + k]!
+      if (k < this.lateFrom && pr < this.nodePivotFloor) aRe[k * n + k] = pr = this.nodePivotFloor
       const pm = pr * pr + pi * pi
-      if (!(Math.sqrt(pm) > 1e-15 * rowScale[k]!) || !Number.isFinite(pm)) throw new SingularSystemError(k)
+      if (!(Math.sqrt(pm) > 1e-15 * rowScale[k]! || (k < this.lateFrom && this.nodePivotFloor > 0)) || !Number.isFinite(pm)) throw new SingularSystemError(k)
       const invRe = pr / pm
       const invIm = -pi / pm
       for (let i = k + 1; i < n; i++) {
@@ -366,10 +377,11 @@ export class ComplexSymmetricSystem {
       if (k < 0) throw new SingularSystemError(-1)
       order[step] = k
       eliminated[k] = true
-      const pr = dRe[k]!
+      let pr = dRe[k]!
       const pi = dIm[k]!
+      if (k < this.lateFrom && pr < this.nodePivotFloor) dRe[k] = pr = this.nodePivotFloor
       const pm = pr * pr + pi * pi
-      if (!(Math.sqrt(pm) > 1e-15 * rowScale[k]!) || !Number.isFinite(pm)) throw new SingularSystemError(k)
+      if (!(Math.sqrt(pm) > 1e-15 * rowScale[k]! || (k < this.lateFrom && this.nodePivotFloor > 0)) || !Number.isFinite(pm)) throw new SingularSystemError(k)
       const invRe = pr / pm
       const invIm = -pi / pm
 

@@ -6,6 +6,26 @@ export interface Reading {
   degrees: number
 }
 
+/** (1.1) an ammeter: the current from a to b through it */
+export interface AmmeterReading {
+  amps: number
+  degrees: number
+}
+
+/** (1.1) a rotation meter: the phase sequence of its leads a, b, c */
+export interface RotationReading {
+  sequence: 'ABC' | 'ACB' | 'none'
+}
+
+/** What a meter reads: a voltmeter's Reading, an ammeter's current or a rotation meter's sequence. */
+export type MeterReading = Reading | AmmeterReading | RotationReading
+
+export const isVoltReading = (m: MeterReading | undefined): m is Reading => m !== undefined && 'volts' in m
+export const isAmpReading = (m: MeterReading | undefined): m is AmmeterReading => m !== undefined && 'amps' in m
+export const isRotationReading = (m: MeterReading | undefined): m is RotationReading => m !== undefined && 'sequence' in m
+/** A voltmeter's reading in volts; undefined for no such meter or another kind of meter. */
+export const meterVolts = (m: MeterReading | undefined): number | undefined => (isVoltReading(m) ? m.volts : undefined)
+
 export interface WindingReading extends Reading {
   amps: number
 }
@@ -28,12 +48,20 @@ export interface ProtectionEvent {
   region: 'instantaneous' | 'inverse-time'
 }
 
-export type HazardCode = 'reversed-winding' | 'loop-voltage' | 'fault-current' | 'winding-overvoltage' | 'overload'
+export type HazardCode =
+  | 'reversed-winding'
+  | 'loop-voltage'
+  | 'fault-current'
+  | 'winding-overvoltage'
+  | 'overload'
+  | 'backfeed'
+  | 'output-voltage'
+  | 'neutral-shift'
 
 export interface Hazard {
   code: HazardCode
   severity: 'danger' | 'caution'
-  /** the parts involved: transformer units, or a fuse or breaker */
+  /** the parts involved: transformer units, a fuse or breaker, an output block */
   units: string[]
   volts?: number
   amps?: number
@@ -72,12 +100,30 @@ export interface BankSummary {
   secondary: Connection
   coils: CoilMode
   displacementDegrees: number | null
+  /** (1.1) as a nameplate gives it: the standard sequence, the higher-voltage side first */
   clock: number | null
+  /** (1.1) IEC 60076-1, e.g. "Dyn1", "YNd11"; null when the wiring is no proper connection */
+  vectorGroup: string | null
+}
+
+/**
+ * A caution about energizing that is no hazard of the settled state (our addition to the
+ * result, like closingChecks): a fuse or breaker that would open on a unit's inrush.
+ */
+export interface EnergizingCaution {
+  code: 'inrush'
+  severity: 'caution'
+  /** the device, then the units whose inrush it carries */
+  units: string[]
+  /** the inrush current estimated through the device, and how long it would take to open */
+  amps: number
+  seconds: number
+  message: string
 }
 
 export interface SolveResult {
   energized: boolean
-  meters: Record<string, Reading>
+  meters: Record<string, MeterReading>
   terminals: Record<string, Reading>
   windings: Record<string, WindingReading>
   devices: Record<string, DeviceReading>
@@ -93,4 +139,6 @@ export interface SolveResult {
    * vector group
    */
   bankProblems: BankProblem[]
+  /** cautions about the moment of energizing (inrush); empty when there are none */
+  cautions: EnergizingCaution[]
 }

@@ -8,7 +8,7 @@
 import type { CircuitInput } from '../circuit/schema'
 import { solve } from '../engine/solve'
 import { bankRating, bankKva, OPEN_DELTA_OF_CLOSED, OPEN_DELTA_OF_TWO_UNITS, type BankRating } from '../engine/ratings'
-import type { Hazard, SolveResult } from '../engine/types'
+import { meterVolts, type Hazard, type SolveResult } from '../engine/types'
 import { benchDocument, hasDeltaSecondary, hasNeutral, loadedDocument, noLoadDocument, ratingConnection } from './build'
 import type { SiteCheckInput } from './inputs'
 import { drawBank, type BankDrawing } from './drawing'
@@ -107,20 +107,20 @@ function primaryAndCoilPoints(input: SiteCheckInput, result: SolveResult, stage:
 function outputPoints(input: SiteCheckInput, result: SolveResult, stage: TestPoint['stage']): Omit<TestPoint, 'step'>[] {
   const points: Omit<TestPoint, 'step'>[] = []
   for (const [x, y] of [['a', 'b'], ['b', 'c'], ['c', 'a']] as const) {
-    const m = result.meters[`M${x}${y}`]
-    if (m) points.push({ stage, kind: 'line', label: `${x}${DASH}${y}`, leads: [`OUT.${x}`, `OUT.${y}`], expectedVolts: m.volts })
+    const volts = meterVolts(result.meters[`M${x}${y}`])
+    if (volts !== undefined) points.push({ stage, kind: 'line', label: `${x}${DASH}${y}`, leads: [`OUT.${x}`, `OUT.${y}`], expectedVolts: volts })
   }
   if (hasNeutral(input.connection)) {
     for (const x of ['a', 'b', 'c'] as const) {
-      const m = result.meters[`M${x}n`]
-      if (!m) continue
+      const volts = meterVolts(result.meters[`M${x}n`])
+      if (volts === undefined) continue
       const high = input.connection === 'high-leg-delta' && x === 'b'
       points.push({
         stage,
         kind: high ? 'high-leg' : 'line-neutral',
         label: high ? `b${DASH}n (high leg)` : `${x}${DASH}n`,
         leads: [`OUT.${x}`, 'OUT.n'],
-        expectedVolts: m.volts,
+        expectedVolts: volts,
         note: high ? 'the high leg: line × √3 / 2 above the neutral; no 120 V load may go on it' : undefined,
       })
     }
@@ -195,7 +195,8 @@ export function planSiteCheck(input: SiteCheckInput): SitePlan {
     const check = open.closingChecks[0]
     // the same bank with its last unit connected backwards: what a wrong closing check reads
     const wrong = solve(noLoadDocument(input, { open: true, reversed: [`T${input.units.length}`] }))
-    reversedClosingVolts = wrong.meters.MC ? round(wrong.meters.MC.volts) : null
+    const wrongVolts = meterVolts(wrong.meters.MC)
+    reversedClosingVolts = wrongVolts !== undefined ? round(wrongVolts) : null
     if (check) {
       steps.push({
         stage: 'corner-open',
@@ -212,13 +213,13 @@ export function planSiteCheck(input: SiteCheckInput): SitePlan {
   steps.push(...outputPoints(input, complete, 'complete'))
   const testPoints = steps.map((p, i) => ({ ...p, step: i + 1, expectedVolts: round(p.expectedVolts) }))
 
-  const secondaryLineVolts = complete.meters.Mab?.volts ?? 0
-  const secondaryNeutralVolts = hasNeutral(input.connection) ? (complete.meters.Man?.volts ?? null) : null
+  const secondaryLineVolts = meterVolts(complete.meters.Mab) ?? 0
+  const secondaryNeutralVolts = hasNeutral(input.connection) ? (meterVolts(complete.meters.Man) ?? null) : null
 
   const loadedDoc = loadedDocument(input, secondaryLineVolts, secondaryNeutralVolts)
   const loaded = solve(loadedDoc)
   const loading = unitLoading(input, loaded)
-  const lineToLine = ['Mab', 'Mbc', 'Mca'].map((m) => loaded.meters[m]?.volts ?? 0)
+  const lineToLine = ['Mab', 'Mbc', 'Mca'].map((m) => meterVolts(loaded.meters[m]) ?? 0)
   const average = lineToLine.reduce((s, v) => s + v, 0) / 3
   const voltageUnbalancePercent = average > 0 ? round((Math.max(...lineToLine.map((v) => Math.abs(v - average))) / average) * 100, 2) : 0
 

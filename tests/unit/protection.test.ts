@@ -5,16 +5,19 @@ import { CURVES, HORIZON_SECONDS, operatingTime, solve } from '#shared/engine'
 
 describe('time-current curves', () => {
   it.each([
-    ['fuse', 'UL 248: carries 110 % indefinitely', 1.1, null],
+    ['time-delay', 'UL 248: carries 110 % indefinitely', 1.1, null],
+    ['fast-acting', 'UL 248: carries 110 % indefinitely', 1.1, null],
     ['breaker', 'UL 489: carries its rating', 1.0, null],
   ] as const)('%s: %s', (kind, _, multiple, expected) => {
     expect(operatingTime(kind, 30, 30 * multiple, 60)).toBe(expected)
   })
 
   it.each([
-    ['fuse', 'UL 248: opens at 135 % within one hour', 1.35, 3600],
-    ['fuse', 'UL 248: opens at 200 % within two minutes (≤ 30 A)', 2, 120],
-    ['fuse', 'IEC 60269-1 gG: conventional fusing current 1.6 × In within one hour', 1.6, 3600],
+    ['time-delay', 'UL 248: opens at 135 % within one hour', 1.35, 3600],
+    ['time-delay', 'UL 248: opens at 200 % within two minutes (≤ 30 A)', 2, 120],
+    ['time-delay', 'IEC 60269-1 gG: conventional fusing current 1.6 × In within one hour', 1.6, 3600],
+    ['fast-acting', 'UL 248: opens at 135 % within one hour', 1.35, 3600],
+    ['fast-acting', 'UL 248: opens at 200 % within two minutes (≤ 30 A)', 2, 120],
     ['breaker', 'UL 489: trips at 135 % within one hour', 1.35, 3600],
     ['breaker', 'UL 489: trips at 200 % within two minutes (≤ 30 A frame)', 2, 120],
   ] as const)('%s: %s', (kind, _, multiple, limitSeconds) => {
@@ -24,19 +27,35 @@ describe('time-current curves', () => {
     expect(op!.seconds).toBeLessThanOrEqual(limitSeconds)
   })
 
-  it('is inverse: more current, sooner', () => {
-    const times = [1.2, 1.5, 2, 3, 5, 8].map((m) => operatingTime('fuse', 20, 20 * m, 60)!.seconds)
-    for (let i = 1; i < times.length; i++) expect(times[i]!).toBeLessThan(times[i - 1]!)
+  it.each(['time-delay', 'fast-acting', 'breaker'] as const)('%s is inverse: more current, sooner', (curve) => {
+    const times = [1.4, 1.5, 2, 3, 5, 8, 12, 20].map((m) => operatingTime(curve, 20, 20 * m, 60)!.seconds)
+    for (let i = 1; i < times.length; i++) expect(times[i]!).toBeLessThanOrEqual(times[i - 1]!)
+    expect(times.at(-1)!).toBeLessThan(times[0]!)
   })
 
-  it('operates at once (half a cycle for a fuse, one cycle for a breaker) from 10 × rating (common practice, from memory)', () => {
-    expect(operatingTime('fuse', 20, 200, 60)).toEqual({ seconds: 0.5 / 60, region: 'instantaneous' })
+  it('UL 248: a time-delay (dual element) fuse holds at least 10 s at 500 %; a fast-acting one opens within a second', () => {
+    expect(operatingTime('time-delay', 30, 150, 60)!.seconds).toBeGreaterThanOrEqual(10)
+    expect(operatingTime('fast-acting', 30, 150, 60)!.seconds).toBeLessThan(1)
+  })
+
+  it('current-limiting, half a cycle: a fast-acting fuse from 10 × rating, a time-delay fuse only from 30 × (common practice, from memory); a breaker trips magnetically in one cycle from 10 ×', () => {
+    expect(operatingTime('fast-acting', 20, 200, 60)).toEqual({ seconds: 0.5 / 60, region: 'instantaneous' })
+    expect(operatingTime('time-delay', 20, 200, 60)!.region).toBe('inverse-time')
+    expect(operatingTime('time-delay', 20, 200, 60)!.seconds).toBeGreaterThan(1)
+    expect(operatingTime('time-delay', 20, 600, 60)).toEqual({ seconds: 0.5 / 60, region: 'instantaneous' })
     expect(operatingTime('breaker', 20, 250, 50)).toEqual({ seconds: 1 / 50, region: 'instantaneous' })
-    expect(CURVES.fuse.instantaneousMultiple).toBe(10)
+    expect(CURVES['fast-acting'].instantaneousMultiple).toBe(10)
+  })
+
+  it('rides through energizing inrush (12 × for 0.1 s, common practice) when time-delay and sized by NEC 450.3(B) at 125 %; a fast-acting fuse does not', () => {
+    const fullLoad = 36.1
+    const inrush = 12 * fullLoad
+    expect(operatingTime('time-delay', 50, inrush, 60)!.seconds).toBeGreaterThan(0.1)
+    expect(operatingTime('fast-acting', 50, inrush, 60)!.seconds).toBeLessThan(0.1)
   })
 
   it('looks no further ahead than one hour', () => {
-    expect(operatingTime('fuse', 30, 30 * 1.105, 60)).toBeNull() // it would take longer than the horizon
+    expect(operatingTime('time-delay', 30, 30 * 1.105, 60)).toBeNull() // it would take longer than the horizon
     expect(HORIZON_SECONDS).toBe(3600)
   })
 })

@@ -88,9 +88,10 @@ describe('protection sizes', () => {
     for (const f of fuses) expect(f).toMatchObject({ amps })
   })
 
-  it('the main breaker is the next standard rating above the fuses (common practice: the fuse clears a bank fault)', () => {
-    expect(mainBreakerAmps(50)).toBe(60)
-    expect(mainBreakerAmps(30)).toBe(35)
+  it('the main breaker is the smallest standard rating of at least twice the fuses (common practice: the time-delay fuse clears a bank fault below the main\'s magnetic trip)', () => {
+    expect(mainBreakerAmps(50)).toBe(100)
+    expect(mainBreakerAmps(30)).toBe(60)
+    expect(mainBreakerAmps(35)).toBe(70)
     expect(primaryFuseAmps({ primary: 'delta', supply: { connection: 'delta', lineVolts: 480 }, units: { kva: 25, primaryVolts: 480, secondaryVolts: [240] } })).toBe(125)
   })
 
