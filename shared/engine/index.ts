@@ -1,6 +1,7 @@
 /** The phasor engine: pure TypeScript, run alike in the browser, on the server and on the command line. */
 export { solve, solveDetailed, solveCircuit, degreesOf, CircuitValidationError, type SolveDetail } from './solve'
 export { CircuitSolveError, LEAK_SIEMENS, VOLTMETER_OHMS, CLOSED_CONTACT_OHMS } from './network'
+export { MAX_OPERATING_INSTANTS, type EngineOptions } from './solve'
 export { toSpiceNetlist, spiceWithProbes, type SpiceProbe } from './spice'
 export { operatingTime, CURVES, HORIZON_SECONDS } from './protection'
 export * from './ratings'

@@ -9,7 +9,7 @@ import { classifyCoils, classifySide, contactMerge, deltaLoops, sideGraphs } fro
 import { deviceHazards, loopHazards, windingHazards, type HazardContext } from './hazards'
 import { backfeedHazards, neutralShiftHazards, outputVoltageHazards } from './hazards-output'
 import { inrushCautions } from './inrush'
-import { buildTopology, nodeOfTerminal, solveStage, type StageSolution, type Topology } from './network'
+import { buildTopology, CircuitSolveError, nodeOfTerminal, solveStage, type StageSolution, type Topology } from './network'
 import { curveOf, operatingTime } from './protection'
 import type { BankSummary, ClosingCheck, DeviceReading, Hazard, MeterReading, ProtectionEvent, Reading, RotationReading, SolveResult } from './types'
 import { vectorGroupOf } from './vector-group'
@@ -100,6 +100,12 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
 
 /** Two operating times this close are one instant: the devices open together. */
 const SAME_INSTANT = 1e-9
+/**
+ * The protection study re-solves the whole network after each instant at which devices open;
+ * past this many separate instants it stops with a CircuitSolveError (a 422) rather than take
+ * seconds: no real bank has more than a few dozen devices that open one after another.
+ */
+export const MAX_OPERATING_INSTANTS = 64
 
 /** Solves an already-validated document (defaults filled in). */
 export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex, options?: EngineOptions): SolveDetail {
@@ -125,6 +131,7 @@ export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex, option
   const hazardKeys = new Set<string>()
   const damage = new Map<string, number>()
   let seconds = 0
+  let instants = 0
   let initial: StageSolution | undefined
   let sol: StageSolution
   let checks: ClosingCheck[] = []
@@ -160,6 +167,13 @@ export function solveCircuit(circuit: Circuit, terminals?: TerminalIndex, option
       if (after < soonest) soonest = after
     }
     if (candidates.length === 0) break
+    if (++instants > MAX_OPERATING_INSTANTS) {
+      throw new CircuitSolveError(
+        `the protection study stops after ${MAX_OPERATING_INSTANTS} separate instants at which fuses or breakers open, and this network needs more: ` +
+          `devices of the same rating and load open together, so give like branches like loads, or study fewer branches at a time.`,
+        [],
+      )
+    }
     const batch = candidates.filter((c) => c.after <= soonest * (1 + SAME_INSTANT) + 1e-12)
     batch.sort((x, y) => y.ratio - x.ratio || (x.id < y.id ? -1 : x.id > y.id ? 1 : 0))
     for (const [id, t] of times) damage.set(id, (damage.get(id) ?? 0) + soonest / t)
