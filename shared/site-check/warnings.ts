@@ -1,5 +1,5 @@
 /** The warnings of a Site check plan: each with a severity, plain words and the rule it comes from. */
-import { hasWyePrimary, neutralAtBank } from './build'
+import { neutralAtBank } from './build'
 import type { SitePlan } from './plan'
 
 export type SiteWarningCode =
@@ -10,6 +10,7 @@ export type SiteWarningCode =
   | 'high-leg-b-position'
   | 'high-leg-no-120v'
   | 'ungrounded-wye-primary'
+  | 'grounded-wye-delta'
   | 'nameplate-voltage'
   | 'unequal-units'
   | 'engine-hazard'
@@ -81,15 +82,25 @@ export function siteWarnings(plan: Omit<SitePlan, 'warnings'>): SiteWarning[] {
       },
     )
   }
-  if (hasWyePrimary(input.connection) && !neutralAtBank(input)) {
+  // a floating wye–delta is the usual recommendation and needs no warning: the closed delta
+  // and the cores hold its star point (the engine's exciting branch shows it)
+  if (input.connection === 'wye-wye' && !neutralAtBank(input)) {
     out.push({
       code: 'ungrounded-wye-primary',
       severity: 'caution',
-      message:
-        input.connection === 'wye-wye'
-          ? 'the wye primary has no grounded neutral: its star point floats, and unbalanced load or a lost line shifts the secondary phase voltages far from 120 V'
-          : 'the wye primary has no grounded neutral: its star point floats; confirm with the serving utility that this is intended (a floating wye–delta will not act as a grounding bank)',
+      message: 'the wye primary has no grounded neutral: its star point floats, and unbalanced load or a lost line shifts the secondary phase voltages far from 120 V',
       rule: 'common practice',
+    })
+  }
+  if (input.connection === 'wye-delta' && neutralAtBank(input)) {
+    out.push({
+      code: 'grounded-wye-delta',
+      severity: 'caution',
+      message:
+        'the primary star point is tied to the supply neutral, so this bank is a grounding source for the primary system: it carries current for any unbalance or ground fault on the primary, ' +
+        'and when one primary fuse or cutout opens the closed delta keeps that unit’s primary live at about its phase voltage (back-feed): a phase opened at the cutout is not dead. ' +
+        'Leaving the star point floating is the usual recommendation; tie it only where the serving utility asks for it',
+      rule: 'IEEE C57.105 (from memory); common practice',
     })
   }
   for (const p of plan.testPoints) {

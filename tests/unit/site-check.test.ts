@@ -195,6 +195,11 @@ describe('warnings', () => {
       ['ungrounded-wye-primary'],
     ],
     [
+      'a wye–delta with its star point on the supply neutral is a grounding source and back-feeds an opened phase (IEEE C57.105, from memory)',
+      input({ connection: 'wye-delta', supply: { lineVolts: 480, connection: 'wye', grounded: true }, units: [0, 1, 2].map(() => unit(25, 277, [120, 120])) }),
+      ['grounded-wye-delta'],
+    ],
+    [
       'a 480 V primary on 277 V units is a nameplate mismatch',
       input({ connection: 'closed-delta', units: [0, 1, 2].map(() => unit(25, 277, [120, 120])) }),
       ['nameplate-voltage'],
@@ -212,6 +217,15 @@ describe('warnings', () => {
   ])('%s', (_, siteInput, codes) => {
     const found = planSiteCheck(siteInput).warnings.map((w) => w.code)
     for (const c of codes) expect(found).toContain(c)
+  })
+
+  it('a correct floating wye–delta (three-wire supply) gets no danger and no star-point warning: the usual recommendation', () => {
+    const plan = planSiteCheck(input({ connection: 'wye-delta', supply: { lineVolts: 480, connection: 'delta', grounded: false }, units: [0, 1, 2].map(() => unit(25, 277, [120, 120])) }))
+    expect(plan.warnings.filter((w) => w.severity === 'danger')).toEqual([])
+    expect(plan.warnings.map((w) => w.code)).not.toContain('ungrounded-wye-primary')
+    expect(plan.hazards).toEqual([])
+    const check = plan.testPoints.find((p) => p.kind === 'closing-check')
+    expect(check?.expectedVolts ?? 0).toBeLessThan(3)
   })
   it('a plain closed delta of equal units at light load warns of nothing', () => {
     expect(planSiteCheck(input({ connection: 'closed-delta', units: [0, 1, 2].map(() => unit(25, 480, [120, 120])), loads: { threePhaseKva: 20, powerFactor: 0.9 } })).warnings).toEqual([])
