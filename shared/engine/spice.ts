@@ -2,21 +2,33 @@
  * The same circuit as an ngspice netlist, for an independent check of the engine and for
  * users who want to run it in a SPICE of their own.
  *
- * Each transformer winding is its series resistance and reactance in series with one of a
- * set of inductors coupled with k = 1 − 1e-9. The coupled inductances are proportional to the
- * square of the turns, sized so that the magnetizing reactance is 10⁴ × the unit's base
- * impedance: the magnetizing current is then 10⁻⁴ per unit and the leakage that k adds
- * 2 × 10⁻⁵ per unit, both far below the engine's 0.5 % agreement. A 0 V source in each
- * winding measures its current.
+ * Each transformer winding is its series resistance and reactance, a 0 V source that measures
+ * its current, and one of a set of inductors coupled with k = 1 − 1e-9. Coupled inductors in
+ * proportion to the square of the turns are an ideal core with the magnetizing inductance of
+ * the first across it, so the primary's is the unit's own magnetizing reactance referred to
+ * the primary's n_p turns (tap included): L_p = n_p² / (ω·B), each other winding's
+ * L_p·(n_k/n_p)²; a resistor n_p² / G across the primary's coupled inductor draws the core
+ * loss (circuit-format.md 1.1: the exciting branch across the ideal core on the primary side,
+ * G − jB = excitingAdmittance, in ampere-turns per volt-per-turn). The leakage that k adds is
+ * 2·(1 − k)·L_p, about 2 × 10⁻⁷ per unit at the default 1 % exciting current and at most
+ * 2 × 10⁻⁵ per unit (magnetizing reactance capped at 10⁴ per unit, where B is all but 0):
+ * far below the engine's 0.5 % agreement.
+ *
+ * Ammeters are 0 V sources, rotation meters three 10 MΩ leads to their common point. Every
+ * probe prints the real and imaginary part of its phasor.
  */
-import Complex from 'complex.js'
 import { parseCircuit } from '../circuit/parse'
 import type { Circuit } from '../circuit/schema'
 import { CircuitValidationError } from './solve'
-import { buildTopology, CLOSED_CONTACT_OHMS, LEAK_SIEMENS, VOLTMETER_OHMS, windingImpedances, type Topology } from './network'
+import { buildTopology, CLOSED_CONTACT_OHMS, excitingAdmittance, LEAK_SIEMENS, ROTATION_LEAD_OHMS, VOLTMETER_OHMS, windingImpedances, type Topology } from './network'
 
 export const COUPLING = 1 - 1e-9
-export const MAGNETIZING_PER_UNIT = 1e4
+/**
+ * The largest magnetizing reactance written, per unit of the primary's base: a core whose
+ * loss is nearly all of its exciting current has B near 0 (an infinite inductance); 10⁴ per
+ * unit keeps the leakage of k at 2 × 10⁻⁵ per unit and the extra current at 10⁻⁴ per unit.
+ */
+export const MAX_MAGNETIZING_PER_UNIT = 1e4
 
 export interface SpiceOptions {
   /** number of .ac points at (all but exactly) the supply frequency, for timing ngspice per point; 1 by default */
@@ -25,9 +37,13 @@ export interface SpiceOptions {
 
 /** Names of the printed vectors, so that a caller can read ngspice's output back. */
 export interface SpiceProbe {
-  kind: 'meter' | 'winding'
+  /**
+   * meter: V(a) − V(b) of a voltmeter; ammeter: its current from a to b; winding: the current
+   * into its dotted terminal; rotation: V(a), V(b), V(c) each less V(common)
+   */
+  kind: 'meter' | 'ammeter' | 'winding' | 'rotation'
   name: string
-  /** ngspice expressions: magnitude and phase (degrees) for a meter; real and imaginary current for a winding */
+  /** ngspice expressions, in pairs: the real and the imaginary part of each phasor */
   vectors: string[]
 }
 
@@ -43,14 +59,24 @@ export function spiceWithProbes(input: unknown, options: SpiceOptions = {}): { n
 
 const num = (x: number) => (Number.isInteger(x) ? String(x) : x.toPrecision(12))
 const safe = (s: string) => s.replace(/[^A-Za-z0-9_]/g, '_')
+const node = (n: number) => (n < 0 ? '0' : `n${n}`)
+
+/**
+ * Real and imaginary part of V(a) − V(b). ngspice has no vector for ground, so `v(0,nX)` is
+ * refused: with `a` grounded the difference is −V(b). Nothing when a and b are one node.
+ */
+function voltageVectors(a: number, b: number): string[] {
+  if (a === b) return []
+  const v = b < 0 ? `v(${node(a)})` : a < 0 ? `-v(${node(b)})` : `v(${node(a)},${node(b)})`
+  return [`real(${v})`, `imag(${v})`]
+}
 
 function writeNetlist(circuit: Circuit, options: SpiceOptions): { netlist: string; probes: SpiceProbe[] } {
   const topo: Topology = buildTopology(circuit)
   const supply = circuit.components.find((c) => c.kind === 'supply')
   const hz = supply?.kind === 'supply' ? supply.hz : 60
   const omega = 2 * Math.PI * hz
-  const node = (n: number) => (n < 0 ? '0' : `n${n}`)
-  const lines: string[] = [`* Phaseloom netlist: ${(circuit.name ?? 'bank').replace(/[\r\n]/g, ' ')}`, '* generated from a Phaseloom circuit document (format 1); nodes:']
+  const lines: string[] = [`* Phaseloom netlist: ${(circuit.name ?? 'bank').replace(/[\r\n]/g, ' ')}`, '* generated from a Phaseloom circuit document (format 1.1); nodes:']
   topo.nodeLabels.forEach((labels, i) => lines.push(`*   n${i} = ${labels.join(' ')}`))
   lines.push('*   0 = ground')
 
@@ -74,7 +100,7 @@ function writeNetlist(circuit: Circuit, options: SpiceOptions): { netlist: strin
   for (const ph of topo.phases) {
     const name = `${safe(ph.supply)}_${ph.phase}`
     const deg = (Math.atan2(ph.emf.im, ph.emf.re) * 180) / Math.PI
-    const emf = `DC 0 AC ${num(new Complex(ph.emf.re, ph.emf.im).abs())} ${num(deg)}`
+    const emf = `DC 0 AC ${num(Math.hypot(ph.emf.re, ph.emf.im))} ${num(deg)}`
     if (ph.z.re === 0 && ph.z.im === 0) lines.push(`VS_${name} ${node(ph.line)} ${node(ph.star)} ${emf}`)
     else {
       const inner = `s_${name}`
@@ -98,21 +124,36 @@ function writeNetlist(circuit: Circuit, options: SpiceOptions): { netlist: strin
   }
 
   const probes: SpiceProbe[] = []
-  const diff = (fn: string, a: number, b: number) => (b < 0 ? `${fn}(${node(a)})` : a < 0 ? `${fn}(0,${node(b)})` : `${fn}(${node(a)},${node(b)})`)
-  lines.push(`* voltmeters: ${VOLTMETER_OHMS} Ω`)
+  lines.push(`* voltmeters: ${VOLTMETER_OHMS} Ω (one with both ends on one node reads 0 and is left out)`)
   for (const m of topo.meters) {
-    lines.push(`RMETER_${safe(m.id)} ${node(m.a)} ${node(m.b)} ${num(VOLTMETER_OHMS)}`)
     if (m.a === m.b) continue
-    probes.push({ kind: 'meter', name: m.id, vectors: [diff('vm', m.a, m.b), diff('vp', m.a, m.b)] })
+    lines.push(`RMETER_${safe(m.id)} ${node(m.a)} ${node(m.b)} ${num(VOLTMETER_OHMS)}`)
+    probes.push({ kind: 'meter', name: m.id, vectors: voltageVectors(m.a, m.b) })
+  }
+  lines.push('* ammeters: 0 V sources, the current from a to b (one with both ends on one node reads 0)')
+  for (const m of topo.ammeters) {
+    if (m.a === m.b) continue
+    const source = `VAM_${safe(m.id)}`
+    lines.push(`${source} ${node(m.a)} ${node(m.b)} 0`)
+    probes.push({ kind: 'ammeter', name: m.id, vectors: [`real(i(${source}))`, `imag(i(${source}))`] })
+  }
+  lines.push(`* rotation meters: three ${ROTATION_LEAD_OHMS} Ω leads to a common point`)
+  for (const r of topo.rotationMeters) {
+    const leads = [r.a, r.b, r.c]
+    leads.forEach((lead, k) => lines.push(`RROT_${safe(r.id)}_${'abc'[k]} ${node(lead)} ${node(r.common)} ${num(ROTATION_LEAD_OHMS)}`))
+    probes.push({ kind: 'rotation', name: r.id, vectors: leads.flatMap((lead) => voltageVectors(lead, r.common)) })
   }
 
-  lines.push(`* transformer units: series impedance, a 0 V current probe, coupled inductors (k = ${COUPLING})`)
+  lines.push(`* transformer units: series impedance, a 0 V current probe, coupled inductors (k = ${COUPLING}), the core loss across the primary's`)
   for (const u of topo.units) {
     const z = windingImpedances(u.spec)
     const zs = [z.primary, ...z.coils]
-    const zBase = (u.spec.primaryVolts * u.spec.primaryVolts) / (u.spec.kva * 1000)
-    const lMag = (MAGNETIZING_PER_UNIT * zBase) / omega
     const primaryTurns = u.windings[0]!.turns
+    const va = u.spec.kva * 1000
+    // the exciting branch G − jB at 1 V per turn, referred to the primary: Y / n_p²
+    const exciting = excitingAdmittance(u.spec)
+    const susceptance = Math.max(-exciting.im, va / MAX_MAGNETIZING_PER_UNIT)
+    const lPrimary = (primaryTurns * primaryTurns) / (omega * susceptance)
     const coupled: string[] = []
     u.windings.forEach((w, k) => {
       const tag = `${safe(u.id)}_${w.name.replace('-', '')}`
@@ -122,7 +163,8 @@ function writeNetlist(circuit: Circuit, options: SpiceOptions): { netlist: strin
       series(`W_${tag}`, a, mid1, zs[k]!.re, zs[k]!.im)
       lines.push(`VI_${tag} ${mid1} ${mid2} 0`)
       const ratio = w.turns / primaryTurns
-      lines.push(`LC_${tag} ${mid2} ${node(w.b)} ${num(lMag * ratio * ratio)}`)
+      lines.push(`LC_${tag} ${mid2} ${node(w.b)} ${num(lPrimary * ratio * ratio)}`)
+      if (k === 0 && exciting.re > 0) lines.push(`RCORE_${safe(u.id)} ${mid2} ${node(w.b)} ${num((primaryTurns * primaryTurns) / exciting.re)}`)
       coupled.push(`LC_${tag}`)
       probes.push({ kind: 'winding', name: `${u.id}.${w.name}`, vectors: [`real(i(VI_${tag}))`, `imag(i(VI_${tag}))`] })
     })
