@@ -14,6 +14,32 @@ describe('POST /api/solve', () => {
     expect(r.body.bank).toMatchObject({ primary: 'single-phase', secondary: 'single-phase', coils: 'series' })
   })
 
+  it('accepts the kinds and fields of format 1.1 (ammeter, rotation meter, fuse class, disconnect, tap, polarity)', async () => {
+    const doc = {
+      format: 'phaseloom.circuit',
+      version: 1,
+      components: [
+        { id: 'S1', kind: 'supply', connection: 'delta', lineVolts: 480, rotation: 'ACB' },
+        { id: 'SW1', kind: 'breaker', poles: 2, amps: 30, closed: true, trips: false },
+        { id: 'F1', kind: 'fuse', amps: 30, curve: 'fast-acting' },
+        { id: 'T1', kind: 'transformer', kva: 10, primaryVolts: 480, secondaryVolts: [240], tapPercent: 2.5, polarity: 'additive', excitingPercent: 1.5, coreLossPercent: 0.3 },
+        { id: 'A1', kind: 'ammeter' },
+        { id: 'L1', kind: 'load', ohms: 12 },
+        { id: 'R1', kind: 'rotation-meter' },
+      ],
+      wires: [['S1.A', 'SW1.L1'], ['S1.B', 'SW1.L2'], ['SW1.T1', 'F1.a'], ['F1.b', 'T1.H1'], ['SW1.T2', 'T1.H2'], ['T1.X1', 'A1.a'], ['A1.b', 'L1.a'], ['L1.b', 'T1.X2'], ['R1.a', 'S1.A'], ['R1.b', 'S1.B'], ['R1.c', 'S1.C']],
+    }
+    const r = await api('/api/solve', { method: 'POST', json: doc })
+    expect(r.status).toBe(200)
+    // 240 V / 1.025 on the tap, across 12 Ω: about 19.5 A
+    expect(r.body.meters.A1.amps).toBeCloseTo(240 / 1.025 / 12, 0)
+    expect(r.body.meters.R1).toEqual({ sequence: 'ACB' })
+    // no output block: no displacement, so no vector group
+    expect(r.body.bank.vectorGroup).toBeNull()
+    // a 30 A fast-acting fuse on a 10 kVA unit's 250 A inrush (12 × 20.8 A, common practice)
+    expect(r.body.cautions.map((c: { units: string[] }) => c.units[0])).toEqual(['F1'])
+  })
+
   it('400 with every error and its path for an invalid document', async () => {
     const bad = { ...example, components: [...example.components, { id: 'T1', kind: 'transformer', kva: 'ten' }] }
     const r = await api('/api/solve', { method: 'POST', json: bad })
