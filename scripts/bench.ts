@@ -64,7 +64,29 @@ const cases: Case[] = [
     check: (r) => (r.events.length > 0 ? undefined : 'expected the protection to operate (events.length > 0)'),
   },
   ...[3, 30, 300].map((units) => ({ name: `network (${units} units)`, units, doc: generateNetwork(units), check: quiet })),
+  {
+    name: 'protection study (2 400 fuse-and-load pairs)',
+    units: 0,
+    doc: fuseBranches(2400),
+    check: (r) => (r.events.length === 2400 ? undefined : `expected all 2400 fuses to open, got ${r.events.length}`),
+  },
 ]
+
+/**
+ * 2 400 branches of a 10 A fuse and a 20 Ω load, spread over the three line pairs of a stiff
+ * 480 V supply: each fuse carries 24 A (2.4 × its rating) and all open at one instant, after
+ * which the study solves the network once more.
+ */
+function fuseBranches(n: number): CircuitInput {
+  const components: CircuitInput['components'] = [{ id: 'S1', kind: 'supply', connection: 'delta', lineVolts: 480, sourceOhms: { r: 0, x: 0.00001 } }]
+  const wires: [string, string][] = []
+  for (let i = 0; i < n; i++) {
+    components.push({ id: `F${i}`, kind: 'fuse', amps: 10 }, { id: `L${i}`, kind: 'load', ohms: 20 })
+    const p = i % 3
+    wires.push([`S1.${'ABC'[p]}`, `F${i}.a`], [`F${i}.b`, `L${i}.a`], [`L${i}.b`, `S1.${'ABC'[(p + 1) % 3]}`])
+  }
+  return { format: 'phaseloom.circuit', version: 1, name: `${n} fuse-and-load pairs`, components, wires }
+}
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b)

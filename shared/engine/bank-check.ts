@@ -40,13 +40,9 @@ function nominalPotentials(topo: Topology): (node: number) => C | null {
   }
 }
 
-const potentialCache = new WeakMap<Topology, (node: number) => C | null>()
-
 /** nominalPotentials, worked out once per topology (they depend on the wiring alone). */
 export function nominalPotentialsOf(topo: Topology): (node: number) => C | null {
-  let at = potentialCache.get(topo)
-  if (!at) potentialCache.set(topo, (at = nominalPotentials(topo)))
-  return at
+  return (topo.nominalCache ??= nominalPotentials(topo)) as (node: number) => C | null
 }
 
 /**

@@ -190,16 +190,9 @@ export function sideGraphs(topo: Topology, merge: (n: number) => number): { prim
   }
 }
 
-const groundLabelCache = new WeakMap<Topology, string[]>()
-
 /** The terminals on ground itself (a wye supply's N, a ground part's g, whatever is wired to them). */
 function groundLabels(topo: Topology): string[] {
-  let labels = groundLabelCache.get(topo)
-  if (!labels) {
-    labels = topo.terminalNames.filter((_, k) => topo.terminalNodes[k]! < 0)
-    groundLabelCache.set(topo, labels)
-  }
-  return labels
+  return (topo.groundLabels ??= topo.terminalNames.filter((_, k) => topo.terminalNodes[k]! < 0))
 }
 
 /**

@@ -92,40 +92,51 @@ function outputLines(topo: Topology): { id: string; lines: { name: string; node:
 }
 
 /** The line-to-line voltage a correct bank of this wiring gives: from the nameplates (turns) and the supply. */
-function nameplateLineVolts(ctx: OutputContext, secondary: string): number | null {
+function nameplateLineVolts(ctx: OutputContext, group: BankEdge[]): number | null {
   const direction = edgeDirections(ctx.topo)
-  const sizes = ctx.graphs.secondary.edges.map((e) => direction(e)).filter((d): d is C => d !== null).map(abs)
-  if (sizes.length === 0) return null
-  const coil = sizes.reduce((s, x) => s + x, 0) / sizes.length
-  if (secondary === 'delta' || secondary === 'open-delta' || secondary === 'single-phase') return coil
-  if (secondary === 'wye' || secondary === 'open-wye') return coil * Math.sqrt(3)
+  let sum = 0
+  for (const e of group) {
+    const d = direction(e)
+    if (!d) return null
+    sum += abs(d)
+  }
+  const coil = sum / group.length
+  const kind = classifyGroup(ctx.topo, group, ctx.merge)
+  if (kind === 'delta' || kind === 'open-delta' || kind === 'single-phase') return coil
+  if (kind === 'wye' || kind === 'open-wye') return coil * Math.sqrt(3)
   return null
 }
 
 /**
  * A three-phase output whose line-to-line readings differ from their mean by more than 10 %,
- * or that stand more than 10 % off the nameplates' value for the recognised connection.
+ * or that stand more than 10 % off the nameplates' value for the connection of the secondary
+ * group it is wired to.
  */
-export function outputVoltageHazards(ctx: OutputContext, secondary: string, problems: BankProblem[]): Hazard[] {
+export function outputVoltageHazards(ctx: OutputContext, problems: BankProblem[]): Hazard[] {
   const hazards: Hazard[] = []
-  const expected = nameplateLineVolts(ctx, secondary)
+  let groupAt: Map<number, BankEdge[]> | undefined
   for (const block of outputLines(ctx.topo)) {
-    if (block.lines.length < 2) continue
-    const pairs: { name: string; volts: number }[] = []
-    for (let i = 0; i < block.lines.length; i++) {
-      for (let j = i + 1; j < block.lines.length; j++) {
-        const p = block.lines[i]!
-        const q = block.lines[j]!
-        pairs.push({ name: `${p.name}–${q.name}`, volts: abs(sub(V(ctx.sol, p.node), V(ctx.sol, q.node))) })
-      }
+    const lines = block.lines
+    if (lines.length < 2) continue
+    const volts: number[] = []
+    for (let i = 0; i < lines.length; i++) {
+      for (let j = i + 1; j < lines.length; j++) volts.push(abs(sub(V(ctx.sol, lines[i]!.node), V(ctx.sol, lines[j]!.node))))
     }
-    const mean = pairs.reduce((s, p) => s + p.volts, 0) / pairs.length
+    const mean = volts.reduce((s, v) => s + v, 0) / volts.length
     if (mean < 1) continue // dead
-    const unbalanced = pairs.length === 3 && pairs.some((p) => Math.abs(p.volts - mean) > OUTPUT_TOLERANCE * mean)
-    const off = expected !== null ? pairs.filter((p) => Math.abs(p.volts - expected) > OUTPUT_TOLERANCE * expected) : []
-    if (!unbalanced && off.length === 0) continue
-    const high = expected !== null && pairs.some((p) => p.volts > (1 + OUTPUT_TOLERANCE) * expected)
-    const readings = pairs.map((p) => `${p.name} ${fmtV(p.volts)}`).join(', ')
+    if (!groupAt) {
+      groupAt = new Map()
+      for (const g of ctx.graphs.secondary.groups) for (const e of g) groupAt.set(ctx.merge(e.from), g).set(ctx.merge(e.to), g)
+    }
+    const group = groupAt.get(ctx.merge(lines[0]!.node))
+    const expected = group ? nameplateLineVolts(ctx, group) : null
+    const unbalanced = volts.length === 3 && volts.some((v) => Math.abs(v - mean) > OUTPUT_TOLERANCE * mean)
+    const off = expected !== null && volts.some((v) => Math.abs(v - expected) > OUTPUT_TOLERANCE * expected)
+    if (!unbalanced && !off) continue
+    const high = expected !== null && volts.some((v) => v > (1 + OUTPUT_TOLERANCE) * expected)
+    const names: string[] = []
+    for (let i = 0; i < lines.length; i++) for (let j = i + 1; j < lines.length; j++) names.push(`${lines[i]!.name}–${lines[j]!.name}`)
+    const readings = volts.map((v, k) => `${names[k]} ${fmtV(v)}`).join(', ')
     const reversed = problems.find((p) => p.code === 'reversed-unit')
     const why = reversed
       ? `${reversed.message} `
@@ -134,7 +145,7 @@ export function outputVoltageHazards(ctx: OutputContext, secondary: string, prob
       code: 'output-voltage',
       severity: high ? 'danger' : 'caution',
       units: [block.id, ...(reversed?.units ?? [])],
-      volts: Math.max(...pairs.map((p) => p.volts)),
+      volts: Math.max(...volts),
       message:
         `The output ${block.id} reads ${readings}` +
         (expected !== null ? `, where the nameplates give ${fmtV(expected)} line to line. ` : ', which are not one balanced set. ') +

@@ -127,6 +127,10 @@ export interface Topology {
   leakSiemens: number
   /** what bank.ts reads from the wiring alone, worked out there on first use */
   bankCache?: unknown
+  /** the nominal potentials bank-check.ts works out from the wiring, on first use */
+  nominalCache?: unknown
+  /** the terminals on ground itself, listed by bank.ts on first use */
+  groundLabels?: string[]
 }
 
 class UnionFind {
@@ -196,6 +200,8 @@ class NetworkTopology implements Topology {
   readonly unitById: Map<string, Unit>
   readonly nodeCount: number
   bankCache?: unknown = undefined
+  nominalCache?: unknown = undefined
+  groundLabels?: string[] = undefined
   leakSiemens = LEAK_SIEMENS
   #terminalNode: Map<string, number> | undefined = undefined
   #nodeLabels: string[][] | undefined = undefined

@@ -94,7 +94,7 @@ function stageHazards(topo: Topology, sol: StageSolution, open: ReadonlySet<stri
   hazards.push(...backfeedHazards(out), ...neutralShiftHazards(out))
   // with a delta's corner open the bank is mid closing-check: the loop hazards speak for it,
   // and the output is not to be loaded until the corner is closed
-  if (loops.checks.length === 0) hazards.push(...outputVoltageHazards(out, secondary, problems))
+  if (loops.checks.length === 0) hazards.push(...outputVoltageHazards(out, problems))
   return { hazards, checks: loops.checks, merge, graphs, connections: { primary, secondary }, problems }
 }
 
