@@ -209,6 +209,10 @@ export const labSheets = mysqlTable('lab_sheets', {
   reviewComment: text('review_comment'),
   reviewedAt: datetime('reviewed_at', { mode: 'date', fsp: 3 }),
   version: int('version').notNull().default(1),
+  // the test points with their predictions, worked out when the sheet is made or its bank
+  // changes, so that reading or listing a sheet solves nothing (null: not yet stored)
+  points: jsonDocument<unknown[]>('points'),
+  pointCount: int('point_count'),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 }, table => [index('lab_sheets_owner_idx').on(table.ownerId), index('lab_sheets_class_idx').on(table.classId, table.status)])
@@ -225,6 +229,33 @@ export const labSheetPhotos = mysqlTable('lab_sheet_photos', {
   caption: varchar('caption', { length: 200 }).notNull().default(''),
   createdAt: createdAt(),
 }, table => [index('lab_sheet_photos_sheet_idx').on(table.sheetId)])
+
+/**
+ * A signed-in session, kept server-side so that it can be ended: the sealed cookie carries
+ * only its id. Sign-out revokes one; "sign out everywhere", a password change or reset, a
+ * role change and deactivation revoke all of a user's.
+ */
+export const sessions = mysqlTable('sessions', {
+  id: char('id', { length: 43 }).primaryKey(),
+  userId: int('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  createdAt: createdAt(),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+  revokedAt: datetime('revoked_at', { mode: 'date', fsp: 3 }),
+}, table => [index('sessions_user_idx').on(table.userId)])
+
+/**
+ * Mail waiting to be sent: requests put their message here and a sender loop delivers it,
+ * so no request's answer or timing depends on the mail service (or says who has an account).
+ */
+export const mailQueue = mysqlTable('mail_queue', {
+  id: int('id').autoincrement().primaryKey(),
+  message: jsonDocument<Record<string, unknown>>('message').notNull(),
+  attempts: int('attempts').notNull().default(0),
+  nextAttemptAt: datetime('next_attempt_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  sentAt: datetime('sent_at', { mode: 'date', fsp: 3 }),
+  lastError: text('last_error'),
+  createdAt: createdAt(),
+}, table => [index('mail_queue_due_idx').on(table.sentAt, table.nextAttemptAt)])
 
 export type User = typeof users.$inferSelect
 export type NewUser = typeof users.$inferInsert
