@@ -311,3 +311,68 @@ describe('no physical reading depends on the 1 GΩ leaks (circuit-format.md): sc
     }
   })
 })
+
+/**
+ * A 40-digit reference in fixed-point BigInt arithmetic (no floating point in it): one unit
+ * on one phase of a wye supply, its X2 grounded, a load and a voltmeter across X1–X2, solved
+ * by hand through the T model of circuit-format.md (source, half the impedance, the exciting
+ * branch across the core, the ideal ratio, the other half, the load with the meter's 10 MΩ
+ * and the node's 1 GΩ leak beside it).
+ */
+describe('stiff units against a 40-digit reference (T model by hand)', () => {
+  const SCALE = 10n ** 40n
+  type Z = [bigint, bigint]
+  const fx = (x: number): bigint => {
+    // the double exactly as a ratio of integers, then scaled
+    if (x === 0) return 0n
+    const [mantissa, exponent] = x.toExponential(20).split('e') as [string, string]
+    const digits = BigInt(mantissa.replace('.', '').replace('-', ''))
+    const sign = x < 0 ? -1n : 1n
+    const e = Number(exponent) - 20
+    return sign * (e >= 0 ? digits * 10n ** BigInt(e) * SCALE : (digits * SCALE) / 10n ** BigInt(-e))
+  }
+  const c = (re: number, im = 0): Z => [fx(re), fx(im)]
+  const add = (a: Z, b: Z): Z => [a[0] + b[0], a[1] + b[1]]
+  const mul = (a: Z, b: Z): Z => [(a[0] * b[0] - a[1] * b[1]) / SCALE, (a[0] * b[1] + a[1] * b[0]) / SCALE]
+  const div = (a: Z, b: Z): Z => {
+    const d = (b[0] * b[0] + b[1] * b[1]) / SCALE
+    return [((a[0] * b[0] + a[1] * b[1]) / d), ((a[1] * b[0] - a[0] * b[1]) / d)]
+  }
+  const inv = (a: Z) => div([SCALE, 0n], a)
+  const size = (a: Z) => Math.hypot(Number(a[0] / 10n ** 20n) / 1e20, Number(a[1] / 10n ** 20n) / 1e20)
+
+  it.each([
+    [10_000, 0.01, 0.01, { r: 0, x: 0 }, '10 MVA at 0.01 % on an ideal source'],
+    [100_000, 0.01, 0.002, { r: 0, x: 0 }, '100 MVA at 0.01 %'],
+    [10_000, 0.01, 0.01, { r: 1, x: 2 }, '10 MVA at 0.01 % behind 1 + j2 Ω (weakly driven)'],
+    [0.001, 50, 1000, { r: 0, x: 0 }, '1 VA at 50 %'],
+  ])('%s kVA, %s %%, %s Ω load (%s): within 1e-4 relative', (kva, impedancePercent, loadOhms, sourceOhms) => {
+    const lineVolts = 480 * Math.sqrt(3)
+    const r = solve(doc(
+      [
+        { id: 'S1', kind: 'supply', connection: 'wye', lineVolts, sourceOhms },
+        { id: 'T1', kind: 'transformer', kva, primaryVolts: 480, secondaryVolts: [240], impedancePercent },
+        { id: 'L1', kind: 'load', ohms: loadOhms },
+        { id: 'M1', kind: 'voltmeter' },
+        { id: 'G1', kind: 'ground' },
+      ],
+      [['S1.A', 'T1.H1'], ['T1.H2', 'S1.N'], ['T1.X1', 'L1.a'], ['L1.b', 'T1.X2'], ['T1.X2', 'G1.g'], ['M1.a', 'T1.X1'], ['M1.b', 'T1.X2']],
+    ))
+    // the engine's model, by hand: windingSeries and excitingAdmittance of shared/engine/network.ts
+    const va = kva * 1000
+    const zpu = impedancePercent / 100
+    const rpu = zpu / Math.sqrt(1 + 1.5 * 1.5)
+    const half = (v: number): Z => mul(c(rpu, rpu * 1.5), c((0.5 * v * v) / va))
+    const zp = half(480)
+    const zs = half(240)
+    const a: Z = c(2)
+    const ym = div(c(0.002 * va, -Math.sqrt(0.01 * 0.01 - 0.002 * 0.002) * va), c(480 * 480))
+    const zLoad = inv(add(add(inv(c(loadOhms)), c(1e-7)), c(1e-9)))
+    const z2 = mul(mul(a, a), add(zs, zLoad))
+    const yCore = add(ym, inv(z2))
+    const e = div(c(480), add([SCALE, 0n], mul(add(zp, c(sourceOhms.r, sourceOhms.x)), yCore)))
+    const vLoad = mul(div(e, a), div(zLoad, add(zs, zLoad)))
+    const reference = size(vLoad)
+    expect(Math.abs(volts(r, 'M1') - reference) / reference).toBeLessThan(1e-4)
+  })
+})
