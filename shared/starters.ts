@@ -161,6 +161,15 @@ const STARTERS: readonly Starter[] = [
     { supply: DELTA_480, units: UNIT_480, primary: 'open-delta', secondary: 'open-high-leg', coils: 'series' },
     ['high leg', 'open delta', '2 units', '240/120 V'],
   ),
+  starter(
+    'floating-wye-delta-closing-check',
+    'Floating wye–delta, 480 V three-wire to 240 V, corner open',
+    '277 V primaries in a wye whose star point goes nowhere, on a supply with no neutral: take the closing check before the delta is closed.',
+    { primary: 'wye', secondary: 'open-corner' },
+    // the star point is held only by the three cores' exciting current (circuit-format.md 1.1)
+    { supply: DELTA_480, units: UNIT_277, primary: 'wye', secondary: 'delta', coils: 'series', openCorner: true },
+    ['wye–delta', 'floating wye', 'closing check', '3 units'],
+  ),
 ]
 
 /** Every starter, in gallery order. Treat as read-only; use `starterBySlug` for a copy to edit. */

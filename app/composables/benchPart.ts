@@ -5,7 +5,8 @@ export function useBenchPart<K extends Component['kind']>(id: string, _kind?: K)
   const bench = useBenchStore()
   const part = computed(() => bench.doc.components.find((c) => c.id === id) as Extract<Component, { kind: K }> | undefined)
   const flagged = computed<'danger' | 'caution' | null>(() => {
-    const hazards = bench.result?.hazards.filter((h) => h.units.includes(id)) ?? []
+    // the hazards of this state, and the cautions about energizing (a device that may open on inrush)
+    const hazards = [...(bench.result?.hazards ?? []), ...(bench.result?.cautions ?? [])].filter((h) => h.units.includes(id))
     if (hazards.some((h) => h.severity === 'danger')) return 'danger'
     return hazards.length ? 'caution' : null
   })

@@ -70,14 +70,15 @@ describe('BenchReadings: measured against expected', () => {
     // T2 reversed in a delta with one corner open: b–c reads 240 V, but at +90° instead of −90°
     const wrapper = await readings(doc({ secondary: 'delta', openCorner: true, reversed: ['T2'] }))
     const row = wrapper.get('[data-meter-row="Mbc"]')
-    expect(row.text()).toContain('240.0 V ∠ 90.0°')
+    // 240 V less what the cores' exciting current drops in the units (format 1.1: well under 0.5 %)
+    expect(row.text()).toMatch(/Mbc2(39\.[5-9]|40\.0) V ∠ 90\.0°/)
     expect(row.find('[data-check="volts"]').exists()).toBe(false)
     expect(row.get('[data-check="angle"]').text()).toMatch(/∠≠\s*wrong angle: 180\.0°/)
     // a–b sets the reference and matches
     expect(wrapper.get('[data-meter-row="Mab"]').findAll('[data-check]')).toHaveLength(0)
     // c–a is off in both: 415.7 V at −120° for 240 V at 150°
     const ca = wrapper.get('[data-meter-row="Mca"]')
-    expect(ca.get('[data-check="volts"]').text()).toContain('off by 175.7 V')
+    expect(ca.get('[data-check="volts"]').text()).toMatch(/off by 175\.[5-7] V/)
     expect(ca.get('[data-check="angle"]').text()).toContain('wrong angle: 90.0° ahead')
   })
 

@@ -12,7 +12,7 @@ describe('bench store', () => {
   it('normalises jumpers: trimmed, one order, no duplicates either way round, none to itself', () => {
     expect(normaliseJumper(' T1.X3 ', 'T1.X2')).toEqual(['T1.X2', 'T1.X3'])
     const bench = useBenchStore()
-    bench.load({ format: 'phaseloom.circuit', version: 1, components: [{ id: 'T1', kind: 'transformer', kva: 10, primaryVolts: 480, secondaryVolts: [120, 120], impedancePercent: 3, xOverR: 1.5, compensationPercent: 0 }], wires: [] })
+    bench.load({ format: 'phaseloom.circuit', version: 1, components: [{ id: 'T1', kind: 'transformer', kva: 10, primaryVolts: 480, secondaryVolts: [120, 120], impedancePercent: 3, xOverR: 1.5, compensationPercent: 0, excitingPercent: 1, coreLossPercent: 0.2, tapPercent: 0, polarity: 'subtractive' }], wires: [] })
     expect(bench.addJumper('T1.X3', 'T1.X2')).toBe(true)
     expect(bench.doc.wires).toEqual([['T1.X2', 'T1.X3']])
     expect(bench.addJumper('T1.X2', 'T1.X3')).toBe(false)
