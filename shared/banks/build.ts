@@ -16,6 +16,10 @@ export interface UnitSpec {
   impedancePercent?: number
   xOverR?: number
   compensationPercent?: number
+  excitingPercent?: number
+  coreLossPercent?: number
+  tapPercent?: number
+  polarity?: 'subtractive' | 'additive'
 }
 
 export interface BankSpec {

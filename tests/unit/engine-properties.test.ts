@@ -28,6 +28,11 @@ const unitArb = fc.record({
   impedancePercent: fc.double({ min: 1, max: 8, noNaN: true }),
   xOverR: fc.double({ min: 0.5, max: 6, noNaN: true }),
   compensationPercent: fc.constantFrom(0, 0, 2, 3.5),
+  // format 1.1: the exciting branch, taps and the bushing layout
+  excitingPercent: fc.double({ min: 0.2, max: 5, noNaN: true }),
+  coreLossPercent: fc.double({ min: 0, max: 0.2, noNaN: true }),
+  tapPercent: fc.constantFrom(-5, -2.5, 0, 0, 2.5, 5),
+  polarity: fc.constantFrom('subtractive' as const, 'additive' as const),
 })
 
 const specArb: fc.Arbitrary<BankSpec> = fc
