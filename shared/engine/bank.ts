@@ -328,3 +328,18 @@ export function deltaLoops(graph: SideGraph, merge: (n: number) => number): Delt
   }
   return loops
 }
+
+/** The merged node every edge of a group meets at (a wye's star point), or null. */
+export function starOf(group: BankEdge[], merge: (n: number) => number): number | null {
+  const degree = new Map<number, number>()
+  for (const e of group) for (const n of [merge(e.from), merge(e.to)]) degree.set(n, (degree.get(n) ?? 0) + 1)
+  for (const [node, d] of degree) if (d === group.length) return node
+  return null
+}
+
+/** Whether a group of three edges closes a ring (a closed delta). */
+export function isClosedRing(group: BankEdge[], merge: (n: number) => number): boolean {
+  const degree = new Map<number, number>()
+  for (const e of group) for (const n of [merge(e.from), merge(e.to)]) degree.set(n, (degree.get(n) ?? 0) + 1)
+  return degree.size === 3 && [...degree.values()].every((d) => d === 2)
+}

@@ -7,7 +7,7 @@
  * than 10 % of the phase voltage.
  */
 import type { BankEdge, SideGraph } from './bank'
-import { classifyGroup, nodeRoles } from './bank'
+import { classifyGroup, isClosedRing, nodeRoles, starOf } from './bank'
 import { edgeDirections } from './bank-check'
 import { nodeOfTerminal, type StageSolution, type Topology } from './network'
 import type { BankProblem, Hazard } from './types'
@@ -164,7 +164,7 @@ export function neutralShiftHazards(ctx: OutputContext): Hazard[] {
   const closedDeltaUnits = (graph: SideGraph) => {
     const held = new Set<string>()
     for (const g of graph.groups) {
-      if (g.length === 3 && classifyGroup(topo, g, merge) === 'delta' && isClosed(g, merge)) for (const e of g) held.add(e.unit)
+      if (g.length === 3 && classifyGroup(topo, g, merge) === 'delta' && isClosedRing(g, merge)) for (const e of g) held.add(e.unit)
     }
     return held
   }
@@ -201,16 +201,4 @@ export function neutralShiftHazards(ctx: OutputContext): Hazard[] {
     }
   }
   return hazards
-}
-
-function isClosed(group: BankEdge[], merge: (n: number) => number): boolean {
-  const degree = new Map<number, number>()
-  for (const e of group) for (const n of [merge(e.from), merge(e.to)]) degree.set(n, (degree.get(n) ?? 0) + 1)
-  return degree.size === 3 && [...degree.values()].every((d) => d === 2)
-}
-
-function starOf(group: BankEdge[], merge: (n: number) => number): number | null {
-  const degree = new Map<number, number>()
-  for (const e of group) for (const n of [merge(e.from), merge(e.to)]) degree.set(n, (degree.get(n) ?? 0) + 1)
-  return [...degree].find(([, d]) => d === group.length)?.[0] ?? null
 }

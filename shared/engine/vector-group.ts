@@ -7,7 +7,7 @@
  * on ABC, so it is mirrored back; a step-up bank (secondary above primary) reads from its
  * secondary, which turns the clock round.
  */
-import { nodeRoles, type BankEdge, type Connection, type SideGraph } from './bank'
+import { nodeRoles, starOf, type Connection, type SideGraph } from './bank'
 import type { Topology } from './network'
 
 /** The letter of one side, or null when the connection has none. */
@@ -25,12 +25,6 @@ function sideLetter(topo: Topology, graph: SideGraph, merge: (n: number) => numb
     return roles.neutral || roles.grounded
   })
   return neutralOut ? 'YN' : 'Y'
-}
-
-function starOf(group: BankEdge[], merge: (n: number) => number): number | null {
-  const degree = new Map<number, number>()
-  for (const e of group) for (const n of [merge(e.from), merge(e.to)]) degree.set(n, (degree.get(n) ?? 0) + 1)
-  return [...degree].find(([, d]) => d === group.length)?.[0] ?? null
 }
 
 export interface VectorGroup {
