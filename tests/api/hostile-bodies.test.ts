@@ -109,3 +109,59 @@ describe('hostile bodies', () => {
     expect(failures).toEqual([])
   })
 })
+
+// Every JSON body is checked for depth (32 levels) and width (25 000 keys) as it is read, before
+// any schema or the database sees it: 400 naming the place, never a 500 (MariaDB refuses JSON
+// nested deeper than 32, and recursive code overflows its stack on 10 000 levels).
+const lists = (depth: number) => `${'['.repeat(depth)}${']'.repeat(depth)}`
+
+describe('bodies nested too deep or too wide', () => {
+  const call = (route: typeof routes[number], body: string) => {
+    const init = { method: route.method, body, headers: { 'content-type': 'application/json' } }
+    return route.who === 'anonymous' ? api(route.path(), init) : people()[route.who].call(route.path(), init)
+  }
+
+  it.each(routes.map(r => ({ ...r, name: `${r.method} ${r.path().replace(/\/0(?=\/|$)/g, '/[id]')}` })))('$name: 40 deep is 400 naming where it passes 32', async (route) => {
+    const key = route.keys[0]!
+    const r = await call(route, `{"${key}": ${lists(39)}}`)
+    expect(r.status, r.text).toBe(400)
+    expect(r.body.data.errors).toEqual([{ path: `${key}${'[0]'.repeat(31)}`, message: 'nested too deep: a body may nest objects and lists 32 levels at most' }])
+  })
+
+  it.each([
+    ['10 000 lists in a field', `{"document": ${lists(10_000)}}`, `document${'[0]'.repeat(31)}`],
+    ['100 000 bare lists', lists(100_000), '[0]'.repeat(32)],
+    ['objects 5 000 deep', `${'{"a":'.repeat(5000)}1${'}'.repeat(5000)}`, Array.from({ length: 32 }, () => 'a').join('.')],
+  ])('%s: 400, not a stack overflow', async (_, body, path) => {
+    const r = await call(routes.find(r => r.path() === '/api/banks')!, body)
+    expect(r.status, r.text.slice(0, 300)).toBe(400)
+    expect(r.body.data.errors[0].path).toBe(path)
+    expect((await api('/api/health')).status).toBe(200)
+  })
+
+  it('keeps the widest real bank that fits in 256 KB: 1 300 fuse-and-load pairs with their layout', async () => {
+    const components: object[] = [{ id: 'S1', kind: 'supply', connection: 'delta', lineVolts: 480 }]
+    const wires: [string, string][] = []
+    const layout: Record<string, { x: number, y: number }> = { S1: { x: 0, y: 0 } }
+    for (let i = 0; i < 1300; i++) {
+      components.push({ id: `F${i}`, kind: 'fuse', amps: 10 }, { id: `L${i}`, kind: 'load', ohms: 20 })
+      wires.push([`S1.${'ABC'[i % 3]}`, `F${i}.a`], [`F${i}.b`, `L${i}.a`], [`L${i}.b`, `S1.${'ABC'[(i + 1) % 3]}`])
+      layout[`F${i}`] = { x: i * 40, y: 200 }
+      layout[`L${i}`] = { x: i * 40, y: 300 }
+    }
+    const body = JSON.stringify({ name: 'wide bank', document: { format: 'phaseloom.circuit', version: 1, components, wires, layout } })
+    expect(body.length).toBeGreaterThan(230 * 1024)
+    expect(body.length).toBeLessThan(256 * 1024)
+    const r = await instructor.call('/api/banks', { method: 'POST', body, headers: { 'content-type': 'application/json' } })
+    expect(r.status, r.text.slice(0, 300)).toBe(201)
+  })
+
+  it('refuses a body of more than 25 000 keys with 400', async () => {
+    const wide = `{${Array.from({ length: 25_001 }, (_, i) => `"k${i.toString(36)}":0`).join(',')}}`
+    expect(wide.length).toBeLessThan(256 * 1024)
+    // signed in: anonymous solves are limited per address, and this is not a test of that
+    const r = await student.call('/api/solve', { method: 'POST', body: wide, headers: { 'content-type': 'application/json' } })
+    expect(r.status, r.text.slice(0, 300)).toBe(400)
+    expect(r.body.data.errors).toEqual([{ path: '(body)', message: 'too many keys: a body may hold 25000 object keys in all' }])
+  })
+})

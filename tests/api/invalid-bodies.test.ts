@@ -70,6 +70,23 @@ describe('invalid input', () => {
     expect(response.text).not.toMatch(/\n\s+at |node_modules|\.output/)
   })
 
+  // a component's extra field (kept as sent) nested in lists: the body may nest 32 deep, so the
+  // stored document, one level in, stays within MariaDB's 32
+  const withExtra = (lists: number) => ({ name: `Deep extra ${lists}`, document: { ...starter, components: [{ ...starter.components[0], extra: JSON.parse(`${'['.repeat(lists)}${']'.repeat(lists)}`) }, ...starter.components.slice(1)] } })
+
+  it('saves a bank whose extra field nests as deep as a body may, and reads it back', async () => {
+    const r = await student.call('/api/banks', { method: 'POST', json: withExtra(28) })
+    expect(r.status, r.text).toBe(201)
+    const back = await student.call(`/api/banks/${r.body.id}`)
+    expect(JSON.stringify(back.body.document.components[0].extra)).toBe(`${'['.repeat(28)}${']'.repeat(28)}`)
+  })
+
+  it.each([29, 31, 200])('refuses an extra field nested %i lists deep with 400 naming it, not a 500 from the database', async (lists) => {
+    const r = await student.call('/api/banks', { method: 'POST', json: withExtra(lists) })
+    expect(r.status, r.text.slice(0, 300)).toBe(400)
+    expect(r.body.data.errors[0].path).toBe(`document.components[0].extra${'[0]'.repeat(28)}`)
+  })
+
   it('checks the session before the body: anonymous with a bad body is 401', async () => {
     const response = await api('/api/banks', raw('{not json'))
     expect(response.status).toBe(401)

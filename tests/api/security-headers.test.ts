@@ -2,7 +2,7 @@
 // test server runs with production settings.
 import { describe, expect, it } from 'vitest'
 import starter from '../../examples/one-unit-series.json'
-import { api, databaseURL } from './helpers'
+import { api, baseURL, databaseURL } from './helpers'
 import { newPerson } from './people'
 
 describe('security headers', () => {
@@ -52,5 +52,25 @@ describe('security headers', () => {
     expect(r.status, r.text).toBe(201)
     const back = await person.call(`/api/banks/${r.body.id}`)
     expect(back.body.name).toBe('Bay <4> <script>x</script>')
+  })
+
+  it.each([
+    ['a page without Origin', '/', {}, 'GET'],
+    ['an API read without Origin', '/api/health', {}, 'GET'],
+    ['an API read from our own pages', '/api/health', { 'origin': new URL(baseURL).origin, 'sec-fetch-site': 'same-origin' }, 'GET'],
+    ['an API read from another site', '/api/health', { origin: 'https://evil.example' }, 'GET'],
+    ['a preflight from another site', '/api/banks', { 'origin': 'https://evil.example', 'access-control-request-method': 'POST' }, 'OPTIONS'],
+  ])('sends no access-control-allow-origin to %s (same-site only: no CORS)', async (_, path, headers, method) => {
+    const r = await api(path, { method, headers })
+    expect(r.status).toBe(method === 'OPTIONS' ? 204 : 200)
+    expect(r.headers.get('access-control-allow-origin')).toBeNull()
+    expect(r.headers.get('access-control-allow-credentials')).toBeNull()
+  })
+
+  it('sends no access-control-allow-origin on a same-site write either', async () => {
+    const person = await newPerson('student', databaseURL, 'headers-cors')
+    const r = await person.call('/api/banks', { method: 'POST', json: { name: 'cors check', document: starter }, headers: { origin: new URL(baseURL).origin } })
+    expect(r.status, r.text).toBe(201)
+    expect(r.headers.get('access-control-allow-origin')).toBeNull()
   })
 })
