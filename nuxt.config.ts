@@ -1,4 +1,6 @@
 // https://nuxt.com/docs/api/configuration/nuxt-config
+import { solveWorker } from './server/workers/build'
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', 'nuxt-security'],
@@ -44,8 +46,15 @@ export default defineNuxtConfig({
     // hashes broke the Bench's first save (a client-side move to the bank's new address)
     sri: false,
     xssValidator: false,
+    // same-site only: with no CORS handler no access-control-allow-origin is ever sent (its default
+    // sent `*` to a request without Origin); cross-site writes are refused by server/middleware/same-origin.ts
+    corsHandler: false,
   },
   telemetry: false,
+  nitro: {
+    // the engine's worker thread, bundled on its own beside the server (server/workers/build.ts)
+    rollupConfig: { plugins: [solveWorker()] },
+  },
   app: {
     head: {
       htmlAttrs: { lang: 'en' },
@@ -58,12 +67,19 @@ export default defineNuxtConfig({
   // e.g. NUXT_MAIL_HOST, NUXT_SIGN_IN_LIMIT_WINDOW_SECONDS, NUXT_PUBLIC_BASE_URL).
   runtimeConfig: {
     databaseUrl: '',
+    // behind a reverse proxy (NUXT_TRUST_PROXY=true) X-Forwarded-Host and X-Forwarded-Proto name the
+    // address a browser used; off, they are ignored (anyone can send them to a server facing the world)
+    trustProxy: false,
     // sealed-cookie sessions for 7 days; NUXT_SESSION_COOKIE_SECURE=false for plain HTTP on a LAN
     session: { maxAge: 60 * 60 * 24 * 7, cookie: { secure: true } },
     // 5 failed sign-ins per e-mail and IP within 15 minutes, then 429 until the window ends
     signInLimit: { attempts: 5, windowSeconds: 15 * 60 },
     // probes per fault-hunt attempt: 30 within 30 s, then 429 until the window ends
     probeLimit: { points: 30, windowSeconds: 30 },
+    // the engine's worker threads and the time one solve may take (server/utils/engine-pool.ts)
+    engine: { threads: 1, budgetSeconds: 2, maxQueue: 32, memoryMb: 512, nice: 10 },
+    // anonymous POST /api/solve per IP: 60 within 60 s, then 429 (signed-in users are not limited)
+    solveLimit: { points: 60, windowSeconds: 60 },
     // SMTP for outgoing mail; npm start and npm test point it at the local mail catcher
     mail: { host: '', port: 587, secure: false, user: '', password: '', from: 'Phaseloom <no-reply@phaseloom.test>' },
     // the mail catcher's directory; set only in development (npm start, npm test), it turns

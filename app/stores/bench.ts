@@ -93,8 +93,16 @@ export const useBenchStore = defineStore('bench', () => {
   const bankVersion = ref<number | null>(null)
   const dirty = ref(false)
 
+  // The engine runs in the browser only: server rendering (and the hydration, which must render
+  // the same) shows no reading yet, so opening a large bank costs the server no solve.
+  // Not returned from the store, so it is not state sent with the page.
+  const nuxtApp = useNuxtApp()
+  const engineOn = ref(import.meta.client && !nuxtApp.isHydrating)
+  if (import.meta.client && !engineOn.value) nuxtApp.hooks.hookOnce('app:suspense:resolve', () => { engineOn.value = true })
+
   // in a hunt the Bench must not solve the bank as drawn: the real one has faults in it
   const solved = computed<BenchSolve>(() => {
+    if (!engineOn.value) return { result: null, errors: [], solveError: null }
     if (!hunt.value) return solveSafely(doc.value)
     const parsed = parseCircuit(doc.value)
     return { result: null, errors: parsed.ok ? [] : parsed.errors, solveError: null }

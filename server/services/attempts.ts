@@ -4,12 +4,9 @@
  */
 import { createHash } from 'node:crypto'
 import type { H3Event } from 'h3'
-import { and, asc, eq, isNull, or, sql } from 'drizzle-orm'
-import { terminalsOf, type Circuit } from '#shared/circuit/schema'
-import { CircuitSolveError, solveCircuit, degreesOf } from '#shared/engine'
-import type { SolveResult } from '#shared/engine'
-import { applyFaults, DIAGNOSIS_OF, type Diagnosis } from '#shared/hunts/faults'
-import { parseCircuit } from '#shared/circuit/parse'
+import { and, asc, eq, isNull, lt, or, sql } from 'drizzle-orm'
+import { DIAGNOSIS_OF, type Diagnosis } from '#shared/hunts/faults'
+import type { Settled } from '#shared/hunts/settle'
 import type { Attempt, Hunt, User } from '../db/schema'
 import { huntCircuit, huntNotFound, requireHuntForMember, studentView } from './hunts'
 
@@ -124,96 +121,16 @@ export async function attemptFor(user: User, id: number) {
   return { ...view, student: student ?? null, correct: attempt.correct }
 }
 
-function unsolvable() {
-  return createError({ statusCode: 422, statusMessage: 'This wiring cannot be solved', data: { errors: [{ path: 'document.wires', message: 'a jumper shorts a source or a coil with nothing to limit the current: remove it and try again' }] } })
-}
-
-/**
- * The student's document checked against the hunt: the same parts (ids and kinds), nothing
- * added or taken away. Only the wiring, the breakers' handles and the fuses (replaced or not)
- * are the student's; every other field is the hunt's.
- */
-function benchOf(hunt: Hunt, student: Circuit): Circuit {
-  const base = huntCircuit(hunt)
-  const errors: { path: string, message: string }[] = []
-  const theirs = new Map(student.components.map((c, i) => [c.id, { c, i }]))
-  for (const c of base.components) {
-    const mine = theirs.get(c.id)
-    if (!mine) errors.push({ path: 'document.components', message: `${c.id} is missing: an attempt keeps every part of the hunt's bank` })
-    else if (mine.c.kind !== c.kind) errors.push({ path: `document.components[${mine.i}].kind`, message: `${c.id} is a ${c.kind} in this hunt` })
-  }
-  const known = new Set(base.components.map(c => c.id))
-  student.components.forEach((c, i) => {
-    if (!known.has(c.id)) errors.push({ path: `document.components[${i}]`, message: `${c.id} is not part of this hunt's bank: an attempt cannot add parts (probe with the meter instead)` })
-  })
-  if (errors.length) throw invalidInput(errors, 'Not this hunt\'s bank')
-  const components = base.components.map((c) => {
-    const mine = theirs.get(c.id)!.c
-    if (c.kind === 'breaker' && mine.kind === 'breaker') return { ...c, closed: mine.closed }
-    if (c.kind === 'fuse' && mine.kind === 'fuse') return { ...c, blown: mine.blown }
-    return c
-  })
-  return { ...base, components, wires: student.wires }
+/** Solves the student's bank with the hunt's faults in it, in the engine's pool (shared/hunts/settle.ts). */
+async function settle(hunt: Hunt, document: Record<string, unknown>, probe?: { from: string, to: string }): Promise<Settled> {
+  const outcome = await runEngine('settleAttempt', { hunt: { document: hunt.document, faults: hunt.faults }, document, probe })
+  if (!outcome.ok) throw engineFailure(outcome)
+  return outcome
 }
 
 function wiringHash(document: Record<string, unknown>): string {
   const wires = (document.wires as [string, string][]).map(([a, b]) => (a < b ? `${a}|${b}` : `${b}|${a}`)).sort()
   return createHash('sha256').update(wires.join('\n')).digest('hex')
-}
-
-interface Settled {
-  result: SolveResult
-  /** the student's document with the protective operations applied (blown fuses, tripped breakers) */
-  document: Record<string, unknown>
-  between(from: string, to: string): { volts: number, degrees: number }
-  unsafe: boolean
-  /** every terminal of the student's bank, as labelled */
-  terminals: Set<string>
-}
-
-/** Solves the student's bank with the hunt's faults in it. */
-function settle(hunt: Hunt, raw: Record<string, unknown>): Settled {
-  const parsed = parseCircuit(raw)
-  if (!parsed.ok) throw invalidInput(parsed.errors.map(e => ({ path: `document.${e.path}`, message: e.message })), 'Invalid circuit document')
-  const bench = benchOf(hunt, parsed.circuit)
-  const faulted = applyFaults(bench, hunt.faults)
-  const inner = parseCircuit(faulted.document)
-  if (!inner.ok) throw createError({ statusCode: 500, statusMessage: 'A faulted bank does not parse' })
-  let detail: ReturnType<typeof solveCircuit>
-  try {
-    detail = solveCircuit(inner.circuit)
-  }
-  catch (error) {
-    if (error instanceof CircuitSolveError) throw unsolvable()
-    throw error
-  }
-  const { result, topo, final } = detail
-  const document = structuredClone(raw) as { components: { id: string, kind: string, closed?: boolean, blown?: boolean }[] }
-  for (const e of result.events) {
-    const part = document.components.find(c => c.id === e.device)
-    if (part?.kind === 'fuse') part.blown = true
-    if (part?.kind === 'breaker') part.closed = false
-  }
-  const voltage = (label: string): [number, number] => {
-    const node = topo.terminalNode.get(faulted.terminalOf(label))
-    return node === undefined || node < 0 ? [0, 0] : [final.vRe[node]!, final.vIm[node]!]
-  }
-  return {
-    result,
-    document,
-    between(from, to) {
-      const [ar, ai] = voltage(from)
-      const [br, bi] = voltage(to)
-      const re = ar - br
-      const im = ai - bi
-      const volts = Math.hypot(re, im)
-      if (volts < 1e-6) return { volts: 0, degrees: 0 }
-      return { volts: Math.round(volts * 1e4) / 1e4, degrees: Math.round(degreesOf(re, im) * 100) / 100 }
-    },
-    terminals: new Set(parsed.circuit.components.flatMap(c => terminalsOf(c).map(t => `${c.id}.${t}`))),
-    unsafe: result.energized && result.hazards.some(h =>
-      h.code === 'fault-current' || ((h.code === 'reversed-winding' || h.code === 'loop-voltage') && !h.onClosing)),
-  }
 }
 
 /** What a student may see of a solve: their own parts' states and operations, nothing else. */
@@ -233,21 +150,27 @@ function visibleOutcome(settled: Settled, bench: Record<string, unknown>) {
  * a newly energized wiring that draws fault current or closes a loop onto a voltage is an
  * unsafe closure, and every protective operation counts.
  */
-async function record(attempt: Attempt, settled: Settled, extra: { probe?: boolean } = {}) {
+async function record(attempt: Attempt, settled: Settled, extra: { probeBudget?: number | null } = {}) {
+  const probe = extra.probeBudget !== undefined
   const live = settled.result.energized ? wiringHash(settled.document) : null
   const fresh = live !== null && live !== attempt.liveWiring
   const rewiredLive = fresh && attempt.liveWiring !== null
   const unsafe = fresh && settled.unsafe
-  await useDB().update(attempts).set({
+  const [result] = await useDB().update(attempts).set({
     document: settled.document,
     liveWiring: live,
     liveRewires: rewiredLive ? sql`${attempts.liveRewires} + 1` : undefined,
     unsafeClosures: unsafe ? sql`${attempts.unsafeClosures} + 1` : undefined,
     operations: settled.result.events.length ? sql`${attempts.operations} + ${settled.result.events.length}` : undefined,
-    probesUsed: extra.probe ? sql`${attempts.probesUsed} + 1` : undefined,
+    probesUsed: probe ? sql`${attempts.probesUsed} + 1` : undefined,
     lastActivityAt: new Date(),
-  }).where(and(eq(attempts.id, attempt.id), eq(attempts.status, 'in-progress')))
-  return { unsafeClosure: unsafe, liveRewire: rewiredLive }
+  }).where(and(
+    eq(attempts.id, attempt.id),
+    eq(attempts.status, 'in-progress'),
+    // the budget is checked in the UPDATE itself, so parallel probes cannot pass it together
+    probe && extra.probeBudget !== null ? lt(attempts.probesUsed, extra.probeBudget!) : undefined,
+  ))
+  return { unsafeClosure: unsafe, liveRewire: rewiredLive, recorded: result.affectedRows === 1 }
 }
 
 async function reread(id: number): Promise<Attempt> {
@@ -257,24 +180,29 @@ async function reread(id: number): Promise<Attempt> {
 
 export async function energize(student: User, id: number, document: Record<string, unknown>) {
   const { attempt, hunt } = await openAttempt(student, id)
-  const settled = settle(hunt, document)
-  const happened = await record(attempt, settled)
+  const settled = await settle(hunt, document)
+  const { unsafeClosure, liveRewire } = await record(attempt, settled)
   const now = await reread(id)
-  return { ...visibleOutcome(settled, settled.document), ...happened, ...counters(now, hunt) }
+  return { ...visibleOutcome(settled, settled.document), unsafeClosure, liveRewire, ...counters(now, hunt) }
+}
+
+function budgetUsedUp(budget: number) {
+  return createError({ statusCode: 409, statusMessage: `The probe budget of ${budget} is used up: submit your diagnosis` })
 }
 
 export async function probe(event: H3Event, student: User, id: number, body: { document: Record<string, unknown>, from: string, to: string }) {
   const { attempt, hunt } = await openAttempt(student, id)
+  if (hunt.probeBudget !== null && attempt.probesUsed >= hunt.probeBudget) throw budgetUsedUp(hunt.probeBudget)
   await consumeProbe(event, attempt.id)
-  if (hunt.probeBudget !== null && attempt.probesUsed >= hunt.probeBudget) {
-    throw createError({ statusCode: 409, statusMessage: `The probe budget of ${hunt.probeBudget} is used up: submit your diagnosis` })
+  // a document that is not the hunt's bank, or a terminal it does not have: 400, and nothing counted
+  const settled = await settle(hunt, body.document, { from: body.from, to: body.to })
+  const { recorded, ...happened } = await record(attempt, settled, { probeBudget: hunt.probeBudget })
+  if (!recorded) {
+    const now = await reread(id)
+    if (now.status !== 'in-progress') throw createError({ statusCode: 409, statusMessage: 'This attempt was submitted: it is read-only now' })
+    throw budgetUsedUp(hunt.probeBudget ?? 0)
   }
-  const settled = settle(hunt, body.document)
-  // the student's own terminals only: the faulted bank has parts of its own (an open coil's break)
-  const unknown = [['from', body.from], ['to', body.to]].filter(([, t]) => !settled.terminals.has(t!))
-  if (unknown.length) throw invalidInput(unknown.map(([path, t]) => ({ path: path!, message: `"${t}" is not a terminal of this bank` })))
-  const reading = settled.between(body.from, body.to)
-  const happened = await record(attempt, settled, { probe: true })
+  const reading = settled.reading!
   await useDB().insert(attemptProbes).values({ attemptId: attempt.id, fromTerminal: body.from, toTerminal: body.to, volts: reading.volts, degrees: reading.degrees, energized: settled.result.energized })
   const now = await reread(id)
   return { from: body.from, to: body.to, ...reading, ...visibleOutcome(settled, settled.document), ...happened, ...counters(now, hunt) }

@@ -3,11 +3,10 @@
  * while it is a draft (or sent back to redo); the instructor of the class it was submitted
  * to reads and reviews it. Every query names the owner or the class's instructor.
  */
-import { and, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm'
+import { and, desc, eq, inArray, isNotNull, isNull, ne, or, sql } from 'drizzle-orm'
 import type { z } from 'zod'
-import { parseCircuit } from '#shared/circuit/parse'
 import { compareSheet, DEFAULT_TOLERANCE_PERCENT } from '#shared/lab-sheets/compare'
-import { labPoints } from '#shared/lab-sheets/points'
+import type { TestPoint } from '#shared/lab-sheets/points'
 import type { LabSheetCreateSchema, LabSheetPatchSchema } from '#shared/schemas/lab-sheets'
 import { starterBySlug } from '#shared/starters'
 import type { LabSheet, User } from '../db/schema'
@@ -52,11 +51,27 @@ async function classOf(classId: number | null) {
   return row ? { id: row.id, name: row.name, tolerancePercent: Number(row.tolerancePercent), instructorId: row.instructorId } : null
 }
 
+/** The supply's nominal line volts, read straight off the stored document (checked when the sheet was made). */
 function nominalSupply(document: Record<string, unknown>): number | null {
-  const parsed = parseCircuit(document)
-  if (!parsed.ok) return null
-  const supply = parsed.circuit.components.find(c => c.kind === 'supply')
-  return supply?.kind === 'supply' ? supply.lineVolts : null
+  const components = Array.isArray(document.components) ? document.components as { kind?: unknown, lineVolts?: unknown }[] : []
+  const supply = components.find(c => c?.kind === 'supply')
+  return typeof supply?.lineVolts === 'number' ? supply.lineVolts : null
+}
+
+/** The bank's test points with their predictions, solved in the engine's pool. */
+function predictPoints(document: Record<string, unknown>): Promise<TestPoint[]> {
+  return runEngine('labPoints', document)
+}
+
+/**
+ * The sheet's stored test points. A sheet made before they were stored has none yet: they are
+ * worked out once, here, and stored, so no later read or list solves anything.
+ */
+async function storedPoints(sheet: Pick<LabSheet, 'id' | 'document' | 'points'>): Promise<TestPoint[]> {
+  if (sheet.points) return sheet.points as TestPoint[]
+  const points = await predictPoints(sheet.document)
+  await useDB().update(labSheets).set({ points, pointCount: points.length }).where(and(eq(labSheets.id, sheet.id), isNull(labSheets.points)))
+  return points
 }
 
 export function photoUrl(sheetId: number, photoId: number, thumb = false) {
@@ -67,7 +82,7 @@ export function photoUrl(sheetId: number, photoId: number, thumb = false) {
 export async function sheetView(sheet: LabSheet, as: 'owner' | 'instructor') {
   const klass = await classOf(sheet.classId)
   const [owner] = await useDB().select({ name: users.name, email: users.email }).from(users).where(eq(users.id, sheet.ownerId))
-  const points = labPoints(sheet.document)
+  const points = await storedPoints(sheet)
   const tolerancePercent = klass?.tolerancePercent ?? DEFAULT_TOLERANCE_PERCENT
   const comparison = compareSheet(points, sheet.measured, {
     tolerancePercent,
@@ -113,11 +128,12 @@ export async function createSheet(owner: User, body: z.output<typeof LabSheetCre
     document = starter.document as unknown as Record<string, unknown>
     title = body.title ?? starter.title
   }
-  if (labPoints(document).length === 0) {
+  const points = await predictPoints(document)
+  if (points.length === 0) {
     throw invalidInput([{ path: body.bankId !== undefined ? 'bankId' : 'starter', message: 'this bank gives no readings to take: it needs a supply, units and an energizable path' }], 'No test points')
   }
   if (body.classId !== undefined) await requireMembership(owner, body.classId)
-  const [row] = await useDB().insert(labSheets).values({ ownerId: owner.id, title: title.slice(0, 120), document, measured: {}, notes: '', classId: body.classId ?? null }).$returningId()
+  const [row] = await useDB().insert(labSheets).values({ ownerId: owner.id, title: title.slice(0, 120), document, points, pointCount: points.length, measured: {}, notes: '', classId: body.classId ?? null }).$returningId()
   const { sheet } = await readableSheet(owner, row!.id)
   return sheetView(sheet, 'owner')
 }
@@ -125,7 +141,7 @@ export async function createSheet(owner: User, body: z.output<typeof LabSheetCre
 export async function updateSheet(owner: User, id: number, change: z.output<typeof LabSheetPatchSchema>) {
   const sheet = await writableSheet(owner, id)
   if (change.measured) {
-    const known = new Set(labPoints(sheet.document).map(p => p.id))
+    const known = new Set((await storedPoints(sheet)).map(p => p.id))
     const unknown = Object.keys(change.measured).filter(k => !known.has(k))
     if (unknown.length) throw invalidInput(unknown.map(k => ({ path: `measured["${k}"]`, message: 'this sheet has no such test point' })))
   }
@@ -177,37 +193,67 @@ export async function reviewSheet(instructor: User, id: number, verdict: 'accept
   const [owner] = await useDB().select().from(users).where(eq(users.id, sheet.ownerId))
   if (owner) {
     try {
-      await sendMail(labSheetReviewedMail(owner.email, owner.name, sheet.title, verdict, comment, publicUrl(`/lab-sheets/${id}`)))
+      await queueMail(labSheetReviewedMail(owner.email, owner.name, sheet.title, verdict, comment, publicUrl(`/lab-sheets/${id}`)))
     }
     catch (error) {
-      console.error('review notice not sent:', (error as Error).message)
+      console.error('review notice not queued:', (error as Error).message)
     }
   }
   const { sheet: saved } = await readableSheet(instructor, id)
   return sheetView(saved, 'instructor')
 }
 
+/** The columns a list shows: never the document or the points. */
+const listColumns = {
+  id: labSheets.id,
+  title: labSheets.title,
+  status: labSheets.status,
+  classId: labSheets.classId,
+  measured: labSheets.measured,
+  pointCount: labSheets.pointCount,
+  submittedAt: labSheets.submittedAt,
+  updatedAt: labSheets.updatedAt,
+}
+type ListedSheet = { [K in keyof typeof listColumns]: LabSheet[K] }
+
 /** "My lab sheets", or (classId) the sheets handed in to a class the caller teaches. */
 export async function listSheets(user: User, query: { classId?: number, status?: LabSheet['status'] }) {
   const db = useDB()
   if (query.classId !== undefined) {
     await requireClassInstructor(user, query.classId)
-    const rows = await db.select({ sheet: labSheets, owner: users.name }).from(labSheets)
+    const rows = await db.select({ ...listColumns, owner: users.name }).from(labSheets)
       .innerJoin(users, eq(users.id, labSheets.ownerId))
       .where(and(eq(labSheets.classId, query.classId), ne(labSheets.status, 'draft'), query.status ? eq(labSheets.status, query.status) : undefined))
       .orderBy(desc(labSheets.submittedAt), desc(labSheets.id))
-    return rows.map(r => summary(r.sheet, r.owner))
+    const counts = await pointCounts(rows)
+    return rows.map(r => summary(r, r.owner, counts))
   }
-  const rows = await db.select().from(labSheets)
+  const rows = await db.select(listColumns).from(labSheets)
     .where(and(eq(labSheets.ownerId, user.id), query.status ? eq(labSheets.status, query.status) : undefined))
     .orderBy(desc(labSheets.updatedAt), desc(labSheets.id))
-  return rows.map(s => summary(s, user.name))
+  const counts = await pointCounts(rows)
+  return rows.map(s => summary(s, user.name, counts))
 }
 
-function summary(sheet: LabSheet, owner: string) {
-  const points = labPoints(sheet.document)
-  const taken = points.filter(p => typeof sheet.measured[p.id] === 'number').length
-  return { id: sheet.id, title: sheet.title, owner, status: sheet.status, classId: sheet.classId, points: points.length, taken, submittedAt: sheet.submittedAt?.toISOString() ?? null, updatedAt: sheet.updatedAt.toISOString() }
+/** Point counts of listed sheets that have none stored yet (made before they were): worked out and stored once. */
+async function pointCounts(rows: ListedSheet[]): Promise<Map<number, number>> {
+  const missing = rows.filter(r => r.pointCount === null).map(r => r.id)
+  const counts = new Map<number, number>()
+  if (missing.length === 0) return counts
+  const sheets = await useDB().select({ id: labSheets.id, document: labSheets.document, points: labSheets.points }).from(labSheets).where(inArray(labSheets.id, missing))
+  for (const sheet of sheets) {
+    const points = await storedPoints(sheet)
+    if (sheet.points) await useDB().update(labSheets).set({ pointCount: points.length }).where(and(eq(labSheets.id, sheet.id), isNull(labSheets.pointCount)))
+    counts.set(sheet.id, points.length)
+  }
+  return counts
+}
+
+function summary(sheet: ListedSheet, owner: string, counts: Map<number, number>) {
+  // measured holds known point ids only (updateSheet checks them), so the numbers in it are the points taken
+  const taken = Object.values(sheet.measured).filter(v => typeof v === 'number').length
+  const points = sheet.pointCount ?? counts.get(sheet.id) ?? 0
+  return { id: sheet.id, title: sheet.title, owner, status: sheet.status, classId: sheet.classId, points, taken, submittedAt: sheet.submittedAt?.toISOString() ?? null, updatedAt: sheet.updatedAt.toISOString() }
 }
 
 /** One sheet as CSV: a row per test point. */

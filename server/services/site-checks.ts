@@ -1,20 +1,16 @@
 /** Site checks: planned on the server for the PDF, saved with the user's banks (kind 'site-check'). */
-import { planSiteCheck as plan, SITE_CHECK_KEY, type SiteCheckInput } from '#shared/site-check'
+import { SITE_CHECK_KEY, type SiteCheckInput, type SitePlan } from '#shared/site-check'
 import type { User } from '../db/schema'
 import { createBank } from './banks'
-import { siteCheckPdf } from './site-check-pdf'
 
-/** The plan, or 422 when the engine finds no solution for the bank (never a 5xx for an input the schema let through). */
-export function planSiteCheck(input: SiteCheckInput) {
-  try {
-    return plan(input)
-  } catch (e) {
-    throw createError({
-      statusCode: 422,
-      statusMessage: 'This bank has no solution',
-      data: { errors: [{ path: '(body)', message: `the engine could not solve this bank: ${(e as Error).message}` }] },
-    })
-  }
+/**
+ * The plan, worked out in the engine's pool, or 422 when the engine finds no solution for the
+ * bank (never a 5xx for an input the schema let through).
+ */
+export async function planSiteCheck(input: SiteCheckInput): Promise<SitePlan> {
+  const outcome = await runEngine('sitePlan', input)
+  if (!outcome.ok) throw engineFailure(outcome)
+  return outcome.plan
 }
 
 /**
@@ -23,13 +19,16 @@ export function planSiteCheck(input: SiteCheckInput) {
  * which v1 readers keep and ignore (circuit-format.md: later fields are optional).
  */
 export async function saveSiteCheck(owner: User, input: SiteCheckInput) {
-  const plan = planSiteCheck(input)
+  const plan = await planSiteCheck(input)
   const document = { ...plan.document, [SITE_CHECK_KEY]: input } as Record<string, unknown>
   return createBank(owner, input.name, document, 'site-check')
 }
 
-export async function siteCheckSheetPdf(owner: User, input: SiteCheckInput) {
-  return siteCheckPdf(planSiteCheck(input), { preparedBy: owner.name })
+/** The printable sheet as a PDF (server/services/site-check-pdf.ts), planned and written in the engine's pool. */
+export async function siteCheckSheetPdf(owner: User, input: SiteCheckInput): Promise<Uint8Array> {
+  const outcome = await runEngine('sitePdf', { input, preparedBy: owner.name })
+  if (!outcome.ok) throw engineFailure(outcome)
+  return outcome.pdf
 }
 
 /** A file name from the site check's name: letters, digits and dashes. */
