@@ -1,7 +1,6 @@
 /** Sign-up, sign-in, password reset and account changes. */
 import type { H3Event } from 'h3'
-import { and, eq, gt, isNull, sql } from 'drizzle-orm'
-import type { RateLimiterRes } from 'rate-limiter-flexible'
+import { and, eq, gt, isNull } from 'drizzle-orm'
 import type { SignInBody, SignUpBody } from '#shared/schemas/account'
 import type { User } from '../db/schema'
 import { passwordResetMail } from './mail-messages'
@@ -58,23 +57,20 @@ let decoyHash: Promise<string> | undefined
 
 /**
  * Checks e-mail and password. The same 401 for an unknown e-mail and a wrong password (and a
- * password check either way, so the time taken tells nothing either); 429 with Retry-After
- * after `signInLimit.attempts` failures for this e-mail from this IP within the window.
+ * password check either way, so the time taken tells nothing either). The sign-in limit
+ * (server/utils/sign-in-limit.ts) takes its point before the password is checked: 429 with
+ * Retry-After once this e-mail has failed `signInLimit.attempts` times from this IP within the
+ * window, or this IP has failed too often today.
  */
 export async function signIn(event: H3Event, body: SignInBody): Promise<User> {
-  const limiter = signInLimiter()
-  const key = signInLimitKey(body.email, getRequestIP(event) ?? 'unknown')
-  const record = await limiter.get(key)
-  if (record && record.consumedPoints >= limiter.points) throw tooManyAttempts(event, record)
-
+  const attempt = await beginPasswordAttempt(event, body.email)
   const user = await userByEmail(body.email)
   decoyHash ??= hashPassword('not-a-password-anyone-has')
   const ok = await verifyPassword(user?.passwordHash ?? await decoyHash, body.password)
   if (!user || !ok) {
-    await limiter.penalty(key, 1)
     throw createError({ statusCode: 401, statusMessage: WRONG_CREDENTIALS, data: { errors: [{ path: 'password', message: 'wrong e-mail or password' }] } })
   }
-  await limiter.delete(key)
+  await attempt.succeeded()
   if (!user.active) {
     throw createError({ statusCode: 403, statusMessage: 'This account has been deactivated: ask an administrator' })
   }
@@ -82,32 +78,24 @@ export async function signIn(event: H3Event, body: SignInBody): Promise<User> {
   return user
 }
 
-function tooManyAttempts(event: H3Event, record: RateLimiterRes) {
-  const seconds = Math.max(1, Math.ceil(record.msBeforeNext / 1000))
-  setResponseHeader(event, 'Retry-After', seconds)
-  return createError({
-    statusCode: 429,
-    statusMessage: 'Too many failed sign-ins',
-    data: { retryAfterSeconds: seconds, errors: [{ path: 'password', message: `too many failed attempts: try again in ${Math.ceil(seconds / 60)} minute(s), or reset the password` }] },
-  })
-}
-
-/** Mails a reset link when the e-mail belongs to an active account; says nothing either way. */
+/**
+ * Queues a reset link when the e-mail belongs to an active account; says nothing either way.
+ * The message goes out from the mail queue, never inside this request, so the answer takes
+ * the same time for an address with an account and one without.
+ */
 export async function requestPasswordReset(email: string): Promise<void> {
   const user = await userByEmail(email)
   if (!user || !user.active) return
   const token = newLinkToken()
-  await useDB().insert(tables.passwordResets).values({
-    userId: user.id,
-    tokenHash: hashLinkToken(token),
-    expiresAt: new Date(Date.now() + RESET_LINK_HOURS * 3600_000),
+  // the link and its message commit together: one write, and no link without its mail
+  await useDB().transaction(async (tx) => {
+    await tx.insert(tables.passwordResets).values({
+      userId: user.id,
+      tokenHash: hashLinkToken(token),
+      expiresAt: new Date(Date.now() + RESET_LINK_HOURS * 3600_000),
+    })
+    await queueMail(passwordResetMail(user.email, user.name, publicUrl(`/reset?token=${token}`)), tx)
   })
-  try {
-    await sendMail(passwordResetMail(user.email, user.name, publicUrl(`/reset?token=${token}`)))
-  }
-  catch (error) {
-    console.error('[mail] the password reset message was not sent:', (error as Error).message)
-  }
 }
 
 function linkUsedOrExpired() {
@@ -130,9 +118,8 @@ export async function resetPassword(token: string, password: string): Promise<Us
       .set({ usedAt: new Date() })
       .where(and(eq(tables.passwordResets.id, reset.id), isNull(tables.passwordResets.usedAt)))
     if (claim.affectedRows !== 1) return false
-    await tx.update(tables.users)
-      .set({ passwordHash, sessionVersion: sql`${tables.users.sessionVersion} + 1` })
-      .where(eq(tables.users.id, reset.userId))
+    await tx.update(tables.users).set({ passwordHash }).where(eq(tables.users.id, reset.userId))
+    await revokeAllSessions(reset.userId, tx)
     // any other outstanding link of this user dies with this one
     await tx.update(tables.passwordResets)
       .set({ usedAt: new Date() })
@@ -143,19 +130,27 @@ export async function resetPassword(token: string, password: string): Promise<Us
   return userById(reset.userId)
 }
 
-/** Changes the signed-in user's name and/or password (with the current one); a new password signs out other sessions. */
+/**
+ * Changes the signed-in user's name and/or password (with the current one, checked under the
+ * same limit as a sign-in); a new password ends every session and starts a fresh one here.
+ */
 export async function updateAccount(event: H3Event, user: User, body: { name?: string, currentPassword?: string, newPassword?: string }): Promise<User> {
   const changes: Record<string, unknown> = {}
   if (body.name !== undefined) changes.name = body.name
   if (body.newPassword !== undefined) {
+    const attempt = await beginPasswordAttempt(event, user.email, 'currentPassword')
     if (!(await verifyPassword(user.passwordHash, body.currentPassword ?? ''))) {
       throw invalidInput([{ path: 'currentPassword', message: 'that is not your current password' }], 'Wrong current password')
     }
+    await attempt.succeeded()
     changes.passwordHash = await hashPassword(body.newPassword)
-    changes.sessionVersion = sql`${tables.users.sessionVersion} + 1`
   }
-  await useDB().update(tables.users).set(changes).where(eq(tables.users.id, user.id))
+  await useDB().transaction(async (tx) => {
+    await tx.update(tables.users).set(changes).where(eq(tables.users.id, user.id))
+    if (body.newPassword !== undefined) await revokeAllSessions(user.id, tx)
+  })
   const updated = await userById(user.id)
-  await startSession(event, updated)
+  if (body.newPassword !== undefined) await startSession(event, updated)
+  else await setUserSession(event, { user: sessionUserOf(updated) })
   return updated
 }

@@ -1,5 +1,5 @@
 /** What admins do: find people, change their role or switch them off, invite instructors. */
-import { and, count, desc, eq, like, or, sql } from 'drizzle-orm'
+import { and, count, desc, eq, like, or } from 'drizzle-orm'
 import type { z } from 'zod'
 import type { AdminUserRow, AdminUsersQuerySchema, Role } from '#shared/schemas/account'
 import type { Paged } from '#shared/schemas/banks'
@@ -35,10 +35,13 @@ export async function changeUser(admin: User, id: number, change: { role?: Role,
   if (target.id === admin.id) {
     throw invalidInput([{ path: change.role !== undefined ? 'role' : 'active', message: 'you cannot change your own role or switch yourself off: ask another admin' }], 'Not on yourself')
   }
-  const set: Record<string, unknown> = { sessionVersion: sql`${users.sessionVersion} + 1` }
+  const set: Record<string, unknown> = {}
   if (change.role !== undefined) set.role = change.role
   if (change.active !== undefined) set.active = change.active
-  await useDB().update(users).set(set).where(eq(users.id, id))
+  await useDB().transaction(async (tx) => {
+    await tx.update(users).set(set).where(eq(users.id, id))
+    await revokeAllSessions(id, tx)
+  })
   return row(await userById(id))
 }
 
@@ -46,9 +49,12 @@ export async function changeUser(admin: User, id: number, change: { role?: Role,
 export async function inviteInstructor(admin: User, email: string, name: string | undefined) {
   const token = newLinkToken()
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86400_000)
-  const [created] = await useDB().insert(tables.invitations)
-    .values({ email, name: name ?? null, tokenHash: hashLinkToken(token), invitedBy: admin.id, expiresAt })
-    .$returningId()
-  await sendMail(instructorInvitationMail(email, name ?? null, admin.name, publicUrl(`/invitations/${token}`)))
+  const created = await useDB().transaction(async (tx) => {
+    const [row] = await tx.insert(tables.invitations)
+      .values({ email, name: name ?? null, tokenHash: hashLinkToken(token), invitedBy: admin.id, expiresAt })
+      .$returningId()
+    await queueMail(instructorInvitationMail(email, name ?? null, admin.name, publicUrl(`/invitations/${token}`)), tx)
+    return row
+  })
   return { id: created!.id, email, expiresAt: expiresAt.toISOString() }
 }

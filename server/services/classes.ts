@@ -149,8 +149,10 @@ export async function inviteToClass(instructor: User, id: number, emails: string
   const sent: { email: string, expiresAt: string }[] = []
   for (const email of unique) {
     const token = newLinkToken()
-    await useDB().insert(classInvitations).values({ classId: klass.id, email, tokenHash: hashLinkToken(token), expiresAt })
-    await sendMail(classInvitationMail(email, instructor.name, klass.name, publicUrl(`/classes/join?token=${token}`), CLASS_INVITATION_DAYS))
+    await useDB().transaction(async (tx) => {
+      await tx.insert(classInvitations).values({ classId: klass.id, email, tokenHash: hashLinkToken(token), expiresAt })
+      await queueMail(classInvitationMail(email, instructor.name, klass.name, publicUrl(`/classes/join?token=${token}`), CLASS_INVITATION_DAYS), tx)
+    })
     sent.push({ email, expiresAt: expiresAt.toISOString() })
   }
   return { sent }

@@ -199,12 +199,12 @@ export async function publishHunt(author: User, id: number, classIds: number[]) 
     for (const m of members) {
       const klass = fresh.find(c => c.id === m.classId)!
       try {
-        await sendMail(huntPublishedMail(m.email, m.name, author.name, hunt.title, klass.name, hunt.dueAt, link))
+        await queueMail(huntPublishedMail(m.email, m.name, author.name, hunt.title, klass.name, hunt.dueAt, link))
         mailed++
       }
       catch (error) {
         // the hunt is published either way: the students find it on their hunts page
-        console.error('hunt notice not sent:', (error as Error).message)
+        console.error('hunt notice not queued:', (error as Error).message)
         unsent++
       }
     }

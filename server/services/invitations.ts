@@ -1,6 +1,6 @@
 /** Accepting an instructor invitation: a new instructor account, or an upgrade of the invitee's own. */
 import type { H3Event } from 'h3'
-import { and, eq, gt, isNull, sql } from 'drizzle-orm'
+import { and, eq, gt, isNull } from 'drizzle-orm'
 import type { Invitation, User } from '../db/schema'
 import { createAccount, userByEmail, userById } from './accounts'
 
@@ -42,7 +42,10 @@ export async function acceptInvitation(event: H3Event, token: string, signedIn: 
   let user: User
   let created = false
   if (existing) {
-    await useDB().update(users).set({ role: 'instructor', sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, existing.id))
+    await useDB().transaction(async (tx) => {
+      await tx.update(users).set({ role: 'instructor' }).where(eq(users.id, existing.id))
+      await revokeAllSessions(existing.id, tx)
+    })
     user = await userById(existing.id)
   }
   else {

@@ -7,12 +7,12 @@ import { randomUUID } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { fileTypeFromBuffer } from 'file-type'
 import sharp from 'sharp'
-import { and, count, eq } from 'drizzle-orm'
+import { and, count, eq, inArray } from 'drizzle-orm'
 import { PHOTO_LIMIT_BYTES, PHOTOS_PER_SHEET } from '#shared/schemas/lab-sheets'
 import type { User } from '../db/schema'
 import { readableSheet, writableSheet, photoUrl } from './lab-sheets'
 
-const { labSheetPhotos } = tables
+const { labSheetPhotos, labSheets } = tables
 const ACCEPTED = new Set(['image/jpeg', 'image/png', 'image/webp'])
 // multipart framing and the caption on top of the file itself
 const FORM_OVERHEAD = 64 * 1024
@@ -58,10 +58,21 @@ export async function addPhoto(event: H3Event, owner: User, sheetId: number) {
   await storage.setItemRaw(`${base}.webp`, full.data)
   await storage.setItemRaw(`${base}-thumb.webp`, thumb)
   try {
-    const [row] = await useDB().insert(labSheetPhotos).values({
-      sheetId: sheet.id, storageKey: `${base}.webp`, thumbKey: `${base}-thumb.webp`,
-      width: full.info.width, height: full.info.height, bytes: full.data.length, caption,
-    }).$returningId()
+    const row = await useDB().transaction(async (tx) => {
+      // the sheet's row locked, then counted: parallel uploads to one sheet take turns here,
+      // so the limit holds however many arrive at once (the count above only saves the work)
+      const [locked] = await tx.select({ id: labSheets.id }).from(labSheets)
+        .where(and(eq(labSheets.id, sheet.id), eq(labSheets.ownerId, owner.id), inArray(labSheets.status, ['draft', 'redo'])))
+        .for('update')
+      if (!locked) throw createError({ statusCode: 409, statusMessage: 'This sheet was handed in meanwhile: it is read-only until it is reviewed' })
+      const [{ n: held }] = await tx.select({ n: count() }).from(labSheetPhotos).where(eq(labSheetPhotos.sheetId, sheet.id)) as [{ n: number }]
+      if (Number(held) >= PHOTOS_PER_SHEET) throw refused(409, `a sheet holds ${PHOTOS_PER_SHEET} photos at most: remove one first`)
+      const [inserted] = await tx.insert(labSheetPhotos).values({
+        sheetId: sheet.id, storageKey: `${base}.webp`, thumbKey: `${base}-thumb.webp`,
+        width: full.info.width, height: full.info.height, bytes: full.data.length, caption,
+      }).$returningId()
+      return inserted
+    })
     return { id: row!.id, caption, width: full.info.width, height: full.info.height, bytes: full.data.length, url: photoUrl(sheet.id, row!.id), thumbUrl: photoUrl(sheet.id, row!.id, true) }
   }
   catch (error) {

@@ -11,6 +11,8 @@ declare module '#auth-utils' {
 
   /** Server-only part of the session (never sent to the browser). */
   interface SecureSessionData {
+    /** The `sessions` row this cookie belongs to (revoked at sign-out). */
+    sessionId: string
     sessionVersion: number
   }
 }

@@ -1,16 +1,25 @@
-// Accounts: the session cookie, what the session holds, sign-up, account changes, admin
-// changes that sign a user out, and instructor invitations by e-mail.
+// Accounts: the session cookie, what the session holds, sign-up, revocable sessions (a row
+// per sign-in: sign-out and "sign out everywhere" end them), account changes, admin changes
+// that sign a user out, and instructor invitations by e-mail.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { eq } from 'drizzle-orm'
+import { createDB } from '../../server/db/client'
+import { sessions } from '../../server/db/schema'
 import { api, databaseURL } from './helpers'
 import { as, firstLink, mailTo, newPerson, PASSWORD, sessionCookie, signIn, uniqueEmail, type Person } from './people'
 
 let admin: Person
+const db = createDB(databaseURL, { connectionLimit: 2 })
 
 beforeAll(async () => {
   admin = await newPerson('admin', databaseURL, 'accounts-admin')
 })
 
-afterAll(() => {})
+afterAll(async () => {
+  await db.$client.end()
+})
+
+const sessionRows = (userId: number) => db.select().from(sessions).where(eq(sessions.userId, userId))
 
 describe('sign-up and the session', () => {
   it('starts a 7-day, HttpOnly, Secure, SameSite=Lax session holding only id, role and name', async () => {
@@ -48,6 +57,61 @@ describe('sign-up and the session', () => {
   })
 })
 
+describe('revocable sessions', () => {
+  it('keeps a row per sign-in: a 43-character random id that the cookie does not show, good for 7 days', async () => {
+    const person = await newPerson('student', databaseURL, 'session-row')
+    const rows = await sessionRows(person.id)
+    expect(rows).toHaveLength(1)
+    const [row] = rows
+    expect(row!.id).toMatch(/^[\w-]{43}$/)
+    expect(row!.revokedAt).toBeNull()
+    const week = 7 * 24 * 3600_000
+    expect(row!.expiresAt.getTime() - row!.createdAt.getTime()).toBeGreaterThan(week - 60_000)
+    expect(row!.expiresAt.getTime() - row!.createdAt.getTime()).toBeLessThanOrEqual(week + 60_000)
+    expect(decodeURIComponent(person.cookie)).not.toContain(row!.id)
+    expect((await person.call('/api/_auth/session')).text).not.toContain(row!.id)
+    await signIn(person.email, PASSWORD)
+    expect(await sessionRows(person.id)).toHaveLength(2)
+  })
+
+  it('an old cookie after sign-out gets 401 everywhere, and other sessions carry on', async () => {
+    const person = await newPerson('student', databaseURL, 'session-old')
+    const other = await signIn(person.email, PASSWORD)
+    const old = person.cookie
+    expect((await as(old)('/api/banks')).status).toBe(200)
+    expect((await as(old)('/api/auth/sign-out', { method: 'POST' })).status).toBe(204)
+    // the browser forgets the cookie; a copy of it kept elsewhere is what this checks
+    expect((await as(old)('/api/banks')).status).toBe(401)
+    expect((await as(old)('/api/account', { method: 'PATCH', json: { name: 'Not Me' } })).status).toBe(401)
+    expect((await as(old)('/api/_auth/session')).status).toBe(401)
+    expect((await as(other)('/api/banks')).status).toBe(200)
+    const rows = await sessionRows(person.id)
+    expect(rows.filter(r => r.revokedAt !== null)).toHaveLength(1)
+    expect(rows.filter(r => r.revokedAt === null)).toHaveLength(1)
+  })
+
+  it('"sign out everywhere" ends every session of that user and no one else\'s', async () => {
+    const person = await newPerson('practitioner', databaseURL, 'session-all')
+    const laptop = await signIn(person.email, PASSWORD)
+    const bystander = await newPerson('practitioner', databaseURL, 'session-bystander')
+    expect((await api('/api/account/sign-out-all', { method: 'POST' })).status).toBe(401)
+    const ended = await person.call('/api/account/sign-out-all', { method: 'POST' })
+    expect(ended.status).toBe(204)
+    expect(ended.headers.getSetCookie().find(h => h.startsWith('nuxt-session='))).toMatch(/nuxt-session=;|Max-Age=0|Expires=Thu, 01 Jan 1970/i)
+    for (const cookie of [person.cookie, laptop]) expect((await as(cookie)('/api/banks')).status).toBe(401)
+    expect((await bystander.call('/api/banks')).status).toBe(200)
+    expect((await sessionRows(person.id)).every(r => r.revokedAt !== null)).toBe(true)
+    // signing in again works as ever
+    expect((await as(await signIn(person.email, PASSWORD))('/api/banks')).status).toBe(200)
+  })
+
+  it('a session row past its expiry is refused even with a good cookie', async () => {
+    const person = await newPerson('student', databaseURL, 'session-expired')
+    await db.update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(sessions.userId, person.id))
+    expect((await person.call('/api/banks')).status).toBe(401)
+  })
+})
+
 describe('the account page\'s changes', () => {
   it('renames, and a new password signs out the other sessions but not this one', async () => {
     const person = await newPerson('student', databaseURL, 'account')
@@ -61,6 +125,8 @@ describe('the account page\'s changes', () => {
     expect((await as(fresh)('/api/banks')).status).toBe(200)
     expect((await as(other)('/api/banks')).status).toBe(401)
     expect((await as(person.cookie)('/api/banks')).status).toBe(401)
+    // the rows decide: every earlier session is revoked, only the fresh one is live
+    expect((await sessionRows(person.id)).filter(r => r.revokedAt === null)).toHaveLength(1)
     expect((await api('/api/auth/sign-in', { method: 'POST', json: { email: person.email, password: 'the-second-password' } })).status).toBe(200)
   })
 })
@@ -85,6 +151,7 @@ describe('admin changes to a user', () => {
     expect(changed.status).toBe(200)
     expect(changed.body.role).toBe('instructor')
     expect((await person.call('/api/banks')).status).toBe(401)
+    expect((await sessionRows(person.id)).every(r => r.revokedAt !== null)).toBe(true)
     const cookie = await signIn(person.email, PASSWORD)
     expect((await as(cookie)('/api/_auth/session')).body.user.role).toBe('instructor')
   })
@@ -93,6 +160,7 @@ describe('admin changes to a user', () => {
     const person = await newPerson('student', databaseURL, 'deactivated')
     expect((await admin.call(`/api/admin/users/${person.id}`, { method: 'PATCH', json: { active: false } })).status).toBe(200)
     expect((await person.call('/api/banks')).status).toBe(401)
+    expect((await sessionRows(person.id)).every(r => r.revokedAt !== null)).toBe(true)
     const again = await api('/api/auth/sign-in', { method: 'POST', json: { email: person.email, password: PASSWORD } })
     expect(again.status).toBe(403)
   })

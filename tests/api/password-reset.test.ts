@@ -2,9 +2,9 @@
 // password once → every old session is signed out.
 import { createHash } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { eq } from 'drizzle-orm'
+import { eq, like } from 'drizzle-orm'
 import { createDB } from '../../server/db/client'
-import { passwordResets } from '../../server/db/schema'
+import { mailQueue, passwordResets, sessions } from '../../server/db/schema'
 import { api, databaseURL } from './helpers'
 import { firstLink, mailTo, newPerson, signIn, uniqueEmail, type Person } from './people'
 
@@ -33,6 +33,7 @@ describe('password reset by e-mail', () => {
     const unknown = uniqueEmail('nobody')
     expect((await forgot(unknown)).status).toBe(202)
     await expect(mailTo(unknown, { waitMs: 1_000 })).rejects.toThrow(/no mail/)
+    expect(await db.select().from(mailQueue).where(like(mailQueue.message, `%${unknown}%`))).toHaveLength(0)
     expect((await forgot(person.email.toUpperCase())).status).toBe(202)
   })
 
@@ -62,11 +63,14 @@ describe('password reset by e-mail', () => {
     expect(again.body.data.errors[0].path).toBe('token')
   })
 
-  it('has signed out every old session', async () => {
+  it('has signed out every old session: each row revoked', async () => {
     for (const cookie of [person.cookie, secondSession]) {
       const response = await api('/api/banks', { headers: { cookie } })
       expect(response.status).toBe(401)
     }
+    const rows = await db.select().from(sessions).where(eq(sessions.userId, person.id))
+    expect(rows.length).toBeGreaterThanOrEqual(2)
+    expect(rows.every(r => r.revokedAt !== null)).toBe(true)
   })
 
   it('takes the new password and no longer the old one', async () => {

@@ -58,7 +58,6 @@ const badToken = 'no-such-token-0123456789abcdefghij'
 const rows: Row[] = [
   { route: 'POST /api/auth/sign-up', request: () => ({ path: '/api/auth/sign-up', method: 'POST', json: { name: 'Matrix Newcomer', email: uniqueEmail('matrix-new'), password: PASSWORD, role: 'student' } }), expect: anyone(201) },
   { route: 'POST /api/auth/sign-in', request: () => ({ path: '/api/auth/sign-in', method: 'POST', json: { email: uniqueEmail('matrix-nobody'), password: 'not-the-password' } }), expect: anyone(401) },
-  { route: 'POST /api/auth/sign-out', request: () => ({ path: '/api/auth/sign-out', method: 'POST' }), expect: anyone(204) },
   { route: 'POST /api/auth/forgot', request: () => ({ path: '/api/auth/forgot', method: 'POST', json: { email: uniqueEmail('matrix-forgot') } }), expect: anyone(202) },
   { route: 'POST /api/auth/reset', request: () => ({ path: '/api/auth/reset', method: 'POST', json: { token: badToken, password: PASSWORD } }), expect: anyone(400) },
   { route: 'PATCH /api/account', request: c => ({ path: '/api/account', method: 'PATCH', json: { name: c.name || 'Nobody' } }), expect: signedIn(200) },
@@ -79,6 +78,8 @@ const rows: Row[] = [
   { route: 'DELETE /api/banks/[id]', request: c => ({ path: `/api/banks/${c.banks.doomed}`, method: 'DELETE' }), expect: bankRoles(204) },
   { route: 'POST /api/banks/[id]/restore', request: c => ({ path: `/api/banks/${c.banks.deleted}/restore`, method: 'POST' }), expect: bankRoles(200) },
   { route: 'GET /api/shared/[token]', request: c => ({ path: `/api/shared/${c.sharedToken}` }), expect: anyone(200) },
+  // last: a sign-out ends the session every row above uses
+  { route: 'POST /api/auth/sign-out', request: () => ({ path: '/api/auth/sign-out', method: 'POST' }), expect: anyone(204) },
 ]
 
 const cases = rows.flatMap(row => CALLERS.map((caller, index) => ({ route: row.route, caller, status: row.expect[index]!, row })))

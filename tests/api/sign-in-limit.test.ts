@@ -2,6 +2,10 @@
 // failures for one e-mail and IP, 429 with Retry-After until the window (15 minutes in
 // production) ends. A second app instance with a short window, sharing the database, shows
 // that the count lives in MariaDB and that a right password works once the window is over.
+// The point is taken before the password is checked, so a burst of parallel guesses gets no
+// more than five checked; failures from one address do not lock the owner out on another;
+// one address has 100 failures a day, whatever the e-mails; a wrong current password on the
+// account page counts like a failed sign-in.
 import { join } from 'node:path'
 import { setTimeout as sleep } from 'node:timers/promises'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -9,6 +13,7 @@ import { freePort } from '../../scripts/db.mjs'
 import { resultsDir, startServer } from './servers'
 import { api, databaseURL } from './helpers'
 import { newPerson, sessionCookie, uniqueEmail } from './people'
+import { cookieOf, fromAddress, loopbackAddress } from './from-address'
 
 const SHORT_WINDOW_SECONDS = 4
 let second: Awaited<ReturnType<typeof startServer>> | undefined
@@ -78,6 +83,66 @@ describe('failed sign-ins', () => {
     const after = await signIn(person.email, person.password, second!.baseURL)
     expect(after.status).toBe(200)
     expect(sessionCookie(after)).toMatch(/^nuxt-session=/)
+  })
+})
+
+describe('the limit under a burst and from other addresses', () => {
+  it('checks at most five of 31 parallel wrong passwords for one e-mail and IP', async () => {
+    const person = await newPerson('student', databaseURL, 'limit-burst')
+    const address = loopbackAddress()
+    const attempt = (password: string) => fromAddress(address, '/api/auth/sign-in', { method: 'POST', json: { email: person.email, password } })
+    const burst = await Promise.all(Array.from({ length: 31 }, (_, i) => attempt(`burst-wrong-${i}`)))
+    const statuses = burst.map(r => r.status)
+    // a 401 is a password that was checked; without the point taken first, all 31 would be
+    expect(statuses.filter(s => s === 401)).toHaveLength(5)
+    expect(statuses.filter(s => s === 429)).toHaveLength(26)
+    expect((await attempt(person.password)).status).toBe(429)
+  })
+
+  it('does not lock the owner out from another address', async () => {
+    const person = await newPerson('student', databaseURL, 'limit-owner')
+    const attacker = loopbackAddress()
+    const signInFrom = (address: string, password: string) => fromAddress(address, '/api/auth/sign-in', { method: 'POST', json: { email: person.email, password } })
+    for (let attempt = 1; attempt <= 6; attempt++) await signInFrom(attacker, `attacker-${attempt}`)
+    expect((await signInFrom(attacker, person.password)).status).toBe(429)
+    const owner = await signInFrom(loopbackAddress(), person.password)
+    expect(owner.status, owner.text).toBe(200)
+    expect((await api('/api/banks', { headers: { cookie: cookieOf(owner) } })).status).toBe(200)
+  })
+
+  it('gives one address 100 failed checks a day across e-mails, checked at most 100 times in a burst', async () => {
+    const address = loopbackAddress()
+    const person = await newPerson('practitioner', databaseURL, 'limit-address')
+    const burst = await Promise.all(Array.from({ length: 110 }, (_, i) =>
+      fromAddress(address, '/api/auth/sign-in', { method: 'POST', json: { email: uniqueEmail(`spray-${i}`), password: 'sprayed-password' } })))
+    const statuses = burst.map(r => r.status)
+    expect(statuses.filter(s => s === 401)).toHaveLength(100)
+    expect(statuses.filter(s => s === 429)).toHaveLength(10)
+    const refused = burst.find(r => r.status === 429)!
+    expect(Number(refused.headers['retry-after'])).toBeGreaterThan(23 * 3600)
+    // that address is spent even for a right password; the owner elsewhere is not
+    expect((await fromAddress(address, '/api/auth/sign-in', { method: 'POST', json: { email: person.email, password: person.password } })).status).toBe(429)
+    expect((await fromAddress(loopbackAddress(), '/api/auth/sign-in', { method: 'POST', json: { email: person.email, password: person.password } })).status).toBe(200)
+  })
+
+  it('limits a wrong current password on the account page like a failed sign-in', async () => {
+    const person = await newPerson('student', databaseURL, 'limit-current')
+    const address = loopbackAddress()
+    const change = (currentPassword: string, from = address) => fromAddress(from, '/api/account', {
+      method: 'PATCH', cookie: person.cookie, json: { currentPassword, newPassword: 'a-brand-new-password' },
+    })
+    const burst = await Promise.all(Array.from({ length: 12 }, (_, i) => change(`not-my-password-${i}`)))
+    const statuses = burst.map(r => r.status)
+    expect(statuses.filter(s => s === 400)).toHaveLength(5)
+    expect(statuses.filter(s => s === 429)).toHaveLength(7)
+    const refused = burst.find(r => r.status === 429)!
+    expect(refused.body.data.errors[0].path).toBe('currentPassword')
+    expect(Number(refused.headers['retry-after'])).toBeGreaterThan(0)
+    expect((await change(person.password)).status).toBe(429)
+    // the session itself still works, and from another address the right password does
+    expect((await person.call('/api/banks')).status).toBe(200)
+    const elsewhere = await change(person.password, loopbackAddress())
+    expect(elsewhere.status, elsewhere.text).toBe(200)
   })
 })
 

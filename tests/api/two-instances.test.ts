@@ -1,12 +1,15 @@
 // Two app servers on two ports against one MariaDB, as behind a load balancer: a session
-// made on one is good on the other, what one saves the other reads, and the sign-in limit
-// counts failures on both together (its store is the database).
+// made on one is good on the other, and a sign-out or "sign out everywhere" on one ends it on
+// both; what one saves the other reads; the sign-in limit counts failures on both together
+// (its store is the database); both run the mail sender loop, and each message goes out once.
+import { readdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
+import { setTimeout as sleep } from 'node:timers/promises'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { freePort } from '../../scripts/db.mjs'
 import starter from '../../examples/one-unit-series.json'
 import { api, baseURL, databaseURL, scratchDir } from './helpers'
-import { newPerson, uniqueEmail, type Person } from './people'
+import { as, newPerson, outboxDir, PASSWORD, signIn, uniqueEmail, type Person } from './people'
 import { startServer } from './servers'
 
 let second: Awaited<ReturnType<typeof startServer>> | undefined
@@ -15,7 +18,14 @@ let person: Person
 beforeAll(async () => {
   second = await startServer({
     port: await freePort(),
-    env: { NUXT_DATABASE_URL: databaseURL, NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD!, NUXT_PUBLIC_BASE_URL: baseURL },
+    env: {
+      NUXT_DATABASE_URL: databaseURL,
+      NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD!,
+      NUXT_PUBLIC_BASE_URL: baseURL,
+      // the same mail service as the run's server: both sender loops work one queue
+      NUXT_MAIL_HOST: '127.0.0.1',
+      NUXT_MAIL_PORT: process.env.PHASELOOM_MAIL_PORT!,
+    },
     logFile: join(scratchDir, 'second-server.log'),
   })
   person = await newPerson('student', databaseURL, 'two-instances')
@@ -51,5 +61,38 @@ describe('two app instances, one database', () => {
     expect(statuses).toEqual([401, 401, 401, 401, 401])
     expect((await fail('second')).status).toBe(429)
     expect((await fail('first')).status).toBe(429)
+  })
+
+  it('share sign-out: a cookie signed out on one is refused on both', async () => {
+    const cookie = await signIn(person.email, PASSWORD)
+    expect((await onSecond('/api/banks', { headers: { cookie } })).status).toBe(200)
+    expect((await onSecond('/api/auth/sign-out', { method: 'POST', headers: { cookie } })).status).toBe(204)
+    expect((await as(cookie)('/api/banks')).status).toBe(401)
+    expect((await onSecond('/api/banks', { headers: { cookie } })).status).toBe(401)
+    // the person's other session is untouched
+    expect((await person.call('/api/banks')).status).toBe(200)
+  })
+
+  it('share "sign out everywhere": asked on the second, it ends sessions made on the first', async () => {
+    const someone = await newPerson('practitioner', databaseURL, 'two-everywhere')
+    const another = await signIn(someone.email, PASSWORD)
+    expect((await onSecond('/api/account/sign-out-all', { method: 'POST', headers: { cookie: another } })).status).toBe(204)
+    for (const cookie of [someone.cookie, another]) {
+      expect((await as(cookie)('/api/banks')).status).toBe(401)
+      expect((await onSecond('/api/banks', { headers: { cookie } })).status).toBe(401)
+    }
+  })
+
+  it('send each queued message once, though both instances send from one queue', async () => {
+    const people = await Promise.all(Array.from({ length: 8 }, (_, i) => newPerson('student', databaseURL, `two-mail-${i}`)))
+    await Promise.all(people.map((p, i) => (i % 2 ? api : onSecond)('/api/auth/forgot', { method: 'POST', json: { email: p.email } })))
+    const delivered = (email: string) => readdirSync(outboxDir).filter(name => name.endsWith('.json'))
+      .map(name => JSON.parse(readFileSync(join(outboxDir, name), 'utf8')) as { to: string[], subject: string })
+      .filter(m => m.to.includes(email) && /password/i.test(m.subject))
+    const until = Date.now() + 15_000
+    while (people.some(p => delivered(p.email).length === 0) && Date.now() < until) await sleep(100)
+    // a little longer, for any second copy to show itself
+    await sleep(1_500)
+    expect(people.map(p => delivered(p.email).length)).toEqual(people.map(() => 1))
   })
 })
