@@ -1,6 +1,6 @@
 /** What the class and hunt routes answer, as the pages read it (server/services/classes, hunts, attempts). */
 import type { RosterRow } from '#shared/schemas/classes'
-import type { FeedbackMode } from '#shared/schemas/hunts'
+import type { AttemptStatus, FeedbackMode } from '#shared/schemas/hunts'
 import { FAULT_LABELS, type Fault, type FaultKind } from '#shared/hunts/faults'
 
 export interface ClassHuntLink { id: number, title: string, dueAt: string | null }
@@ -52,7 +52,7 @@ export interface HuntStudentView {
   attempt: { id: number, status: string } | null
 }
 
-export type AttemptStatus = 'not-started' | 'in-progress' | 'submitted'
+export type { AttemptStatus }
 export interface HuntLists {
   authored: { id: number, title: string, dueAt: string | null, publishedAt: string | null, updatedAt: string, attempts: number, submitted: number }[]
   assigned: { id: number, title: string, dueAt: string | null, author: string, attemptId: number | null, status: AttemptStatus }[]

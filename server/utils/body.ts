@@ -1,8 +1,9 @@
 import type { IncomingMessage } from 'node:http'
 import type { H3Event } from 'h3'
 
-/** The largest JSON body a route accepts unless it says otherwise: 256 KB. */
-export const JSON_BODY_LIMIT = 256 * 1024
+import { JSON_BODY_LIMIT } from '../../shared/limits'
+
+export { JSON_BODY_LIMIT }
 /**
  * How deep a JSON body may nest objects and lists. MariaDB refuses JSON nested deeper than 32,
  * and a document is one level inside its body, so a body of 32 levels stores safely.

@@ -1,6 +1,11 @@
 /** Request bodies of the class routes; the forms check with the same schemas. */
 import { z } from 'zod'
-import { email } from './account'
+import { email, type Role } from './account'
+import { idParam, linkToken } from './ids'
+
+/** The roles that belong to classes: who may join one, attempt its hunts and keep lab sheets. */
+export const MEMBER_ROLES = ['student', 'instructor'] as const satisfies readonly Role[]
+export const isMemberRole = (role: string | undefined | null): boolean => (MEMBER_ROLES as readonly string[]).includes(role ?? '')
 
 const name = z.string({ error: 'name is required' }).trim().min(1, { error: 'give the class a name' }).max(120, { error: 'name is too long (120 characters at most)' })
 const term = z.string({ error: 'term must be text' }).trim().max(60, { error: 'term is too long (60 characters at most)' })
@@ -17,7 +22,7 @@ export const ClassInviteSchema = z.object({
 })
 export const JOIN_CODE_PATTERN = /^[A-HJ-NP-Z2-9]{8}$/
 /** an invitation link's token, as the e-mail carries it */
-const invitationToken = z.string({ error: 'token must be text' }).min(20, { error: 'the link is incomplete' }).max(100, { error: 'the link is not valid' }).regex(/^[A-Za-z0-9_-]+$/, { error: 'the link is not valid' })
+const invitationToken = linkToken
 export const ClassJoinSchema = z.object({
   code: z.string({ error: 'code must be text' }).trim().toUpperCase().regex(JOIN_CODE_PATTERN, { error: 'a join code is 8 letters and digits, as your instructor gave it' }).optional(),
   token: invitationToken.optional(),
@@ -25,8 +30,8 @@ export const ClassJoinSchema = z.object({
 /** POST /api/classes/invitation: what an invitation link is for, before it is used */
 export const InvitationPreviewSchema = z.object({ token: invitationToken })
 export const memberParams = z.object({
-  id: z.coerce.number({ error: 'id must be a whole number' }).int({ error: 'id must be a whole number' }).positive({ error: 'id must be a whole number' }).max(2_147_483_647, { error: 'id is out of range' }),
-  userId: z.coerce.number({ error: 'userId must be a whole number' }).int({ error: 'userId must be a whole number' }).positive({ error: 'userId must be a whole number' }).max(2_147_483_647, { error: 'userId is out of range' }),
+  id: idParam('id'),
+  userId: idParam('userId'),
 })
 
 export interface ClassSummary {

@@ -2,15 +2,19 @@
 import { z } from 'zod'
 import { CircuitSchema } from '../circuit/parse'
 import { DIAGNOSES, FaultListSchema } from '../hunts/faults'
+import { idField } from './ids'
 
 export const FEEDBACK = ['on-submit', 'after-due'] as const
 export type FeedbackMode = (typeof FEEDBACK)[number]
+/** An attempt as stored; the student's lists add 'not-started' for a hunt with none yet. */
+export const ATTEMPT_STATUSES = ['in-progress', 'submitted'] as const
+export type AttemptStatus = (typeof ATTEMPT_STATUSES)[number] | 'not-started'
 
 const title = z.string({ error: 'title is required' }).trim().min(1, { error: 'give the hunt a title' }).max(120, { error: 'title is too long (120 characters at most)' })
 const instructions = z.string({ error: 'instructions must be text' }).trim().max(4000, { error: 'instructions are too long (4000 characters at most)' })
 const dueAt = z.iso.datetime({ offset: true, error: 'dueAt must be a date and time such as 2027-01-15T17:00:00Z' }).nullable()
 const probeBudget = z.number({ error: 'probeBudget must be a whole number' }).int({ error: 'probeBudget must be a whole number' }).min(1, { error: 'allow at least one probe' }).max(1000, { error: 'probeBudget is at most 1000' }).nullable()
-const id = z.number({ error: 'must be an id' }).int({ error: 'must be an id' }).positive({ error: 'must be an id' }).max(2_147_483_647, { error: 'id is out of range' })
+const id = idField('id', 'must be an id')
 
 const settings = {
   title,

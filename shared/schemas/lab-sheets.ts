@@ -1,13 +1,14 @@
 /** Request bodies of the lab-sheet routes; the sheet form checks with the same schemas. */
 import { z } from 'zod'
 import { parseReading } from '../lab-sheets/compare'
+import { idField, idParam } from './ids'
 
 export const LAB_SHEET_STATUS = ['draft', 'submitted', 'accepted', 'redo'] as const
 export type LabSheetStatus = (typeof LAB_SHEET_STATUS)[number]
 export const PHOTO_LIMIT_BYTES = 8 * 1024 * 1024
 export const PHOTOS_PER_SHEET = 12
 
-const id = (what: string) => z.number({ error: `${what} must be an id` }).int({ error: `${what} must be an id` }).positive({ error: `${what} must be an id` }).max(2_147_483_647, { error: `${what} is out of range` })
+const id = (what: string) => idField(what)
 const title = z.string({ error: 'title must be text' }).trim().min(1, { error: 'give the sheet a title' }).max(120, { error: 'title is too long (120 characters at most)' })
 const volts = (what: string) => z.number({ error: `${what} must be a number of volts` }).gte(0, { error: `${what} cannot be negative` }).lte(1_000_000, { error: `${what} is too high` })
 
@@ -44,10 +45,10 @@ export const LabSheetReviewSchema = z.object({
   comment: z.string({ error: 'comment must be text' }).trim().max(2000, { error: 'comment is too long (2000 characters at most)' }).default(''),
 }).refine(b => b.verdict !== 'redo' || b.comment.length > 0, { error: 'say what to redo', path: ['comment'] })
 export const LabSheetListQuerySchema = z.object({
-  classId: z.coerce.number({ error: 'classId must be an id' }).int().positive().max(2_147_483_647).optional(),
+  classId: idParam('classId', 'classId must be an id').optional(),
   status: z.enum(LAB_SHEET_STATUS, { error: `status is one of ${LAB_SHEET_STATUS.join(', ')}` }).optional(),
 })
 export const photoParams = z.object({
-  id: z.coerce.number({ error: 'id must be a whole number' }).int().positive().max(2_147_483_647, { error: 'id is out of range' }),
-  photoId: z.coerce.number({ error: 'photoId must be a whole number' }).int().positive().max(2_147_483_647, { error: 'photoId is out of range' }),
+  id: idParam('id'),
+  photoId: idParam('photoId'),
 })
