@@ -19,12 +19,26 @@
 //   npm run load -- --only bank     only that route (health is always measured, for the ratio);
 //                                   --only abuse runs the abuse case alone
 //   PROFILE_SERVER=DIR npm run load  the server writes a V8 CPU profile into DIR when it stops
-import { mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs'
 import { loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { setTimeout as sleep } from 'node:timers/promises'
 import autocannon from 'autocannon'
 import { ensureMariaDB, freePort } from './db.mjs'
 import { buildIfStale, ensureNodeModules, startServer } from './setup.mjs'
+
+/** The token of the sign-up link mailed to `email`, read from the mail catcher's directory (waits up to 15 s). */
+async function signUpToken(dir, email) {
+  for (let tries = 0; tries < 150; tries++) {
+    for (const name of readdirSync(dir).filter(n => n.endsWith('.json'))) {
+      const message = JSON.parse(readFileSync(join(dir, name), 'utf8'))
+      const link = message.to.includes(email) && message.text.match(/https?:\/\/\S+\/sign-up\/confirm\S*/)
+      if (link) return new URL(link[0]).searchParams.get('token')
+    }
+    await sleep(100)
+  }
+  throw new Error(`no sign-up link for ${email} reached the mail catcher`)
+}
 
 const args = process.argv.slice(2)
 const json = args.includes('--json')
@@ -139,7 +153,9 @@ try {
   const classAttempts = []
   for (let i = 0; i < CLASS_SIZE; i += 5) {
     classAttempts.push(...await Promise.all(Array.from({ length: Math.min(5, CLASS_SIZE - i) }, async (_, k) => {
-      const { headers } = await call(base, '/api/auth/sign-up', { method: 'POST', expect: 201, body: { name: `Load student ${i + k + 1}`, email: `load-${i + k + 1}@phaseloom.test`, password: 'correct-horse-battery', role: 'student' } })
+      const email = `load-${i + k + 1}@phaseloom.test`
+      await call(base, '/api/auth/sign-up', { method: 'POST', expect: 202, body: { name: `Load student ${i + k + 1}`, email, password: 'correct-horse-battery', role: 'student' } })
+      const { headers } = await call(base, '/api/auth/confirm-sign-up', { method: 'POST', expect: 201, body: { token: await signUpToken(mail.dir, email) } })
       const cookie = cookieOf(headers)
       await call(base, '/api/classes/join', { method: 'POST', cookie, body: { code: 'RVBLAB27' } })
       const started = (await call(base, `/api/hunts/${hunt.id}/attempts`, { method: 'POST', cookie })).body

@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm'
 import { bigint, boolean, char, datetime, decimal, index, int, mysqlEnum, mysqlTable, primaryKey, text, uniqueIndex, varchar } from 'drizzle-orm/mysql-core'
 import { ROLES } from '../../shared/schemas/account'
 import { BANK_KINDS } from '../../shared/schemas/banks'
+import { ATTEMPT_STATUSES, FEEDBACK } from '../../shared/schemas/hunts'
 import type { Fault } from '../../shared/hunts/faults'
 import { jsonDocument } from './json-document'
 
@@ -63,6 +64,24 @@ export const passwordResets = mysqlTable('password_resets', {
   createdAt: createdAt(),
 })
 
+/**
+ * A sign-up waiting for its address to be confirmed: the mailed token is kept only as its
+ * SHA-256, with what the account will be made from (the password already hashed); single use.
+ */
+export const pendingSignUps = mysqlTable('pending_sign_ups', {
+  id: int('id').autoincrement().primaryKey(),
+  tokenHash: char('token_hash', { length: 64 }).notNull().unique('pending_sign_ups_token_unique'),
+  email: varchar('email', { length: 254 }).notNull(),
+  name: varchar('name', { length: 120 }).notNull(),
+  role: mysqlEnum('role', roles).notNull(),
+  passwordHash: varchar('password_hash', { length: 255 }).notNull(),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+  usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
+  createdAt: createdAt(),
+}, table => [
+  index('pending_sign_ups_email_idx').on(table.email),
+])
+
 /** An instructor invitation an admin sent by e-mail; the token is kept as its SHA-256. */
 export const invitations = mysqlTable('invitations', {
   id: int('id').autoincrement().primaryKey(),
@@ -116,7 +135,6 @@ export const classInvitations = mysqlTable('class_invitations', {
   createdAt: createdAt(),
 })
 
-export const FEEDBACK_MODES = ['on-submit', 'after-due'] as const
 
 /**
  * A fault hunt: a copy of one of the author's banks (what students see) and, kept apart,
@@ -132,7 +150,7 @@ export const hunts = mysqlTable('hunts', {
   secondaryPrewired: boolean('secondary_prewired').notNull().default(true),
   dueAt: datetime('due_at', { mode: 'date', fsp: 3 }),
   probeBudget: int('probe_budget'),
-  feedback: mysqlEnum('feedback', FEEDBACK_MODES).notNull().default('on-submit'),
+  feedback: mysqlEnum('feedback', FEEDBACK).notNull().default('on-submit'),
   publishedAt: datetime('published_at', { mode: 'date', fsp: 3 }),
   deletedAt: datetime('deleted_at', { mode: 'date', fsp: 3 }),
   version: int('version').notNull().default(1),
@@ -147,7 +165,6 @@ export const huntClasses = mysqlTable('hunt_classes', {
   publishedAt: createdAt(),
 }, table => [primaryKey({ columns: [table.huntId, table.classId] }), index('hunt_classes_class_idx').on(table.classId)])
 
-export const ATTEMPT_STATUSES = ['in-progress', 'submitted'] as const
 
 /** One student's go at a hunt: their wiring as last sent, the counters, the diagnosis. */
 export const attempts = mysqlTable('attempts', {

@@ -1,7 +1,7 @@
-/** Sign-up, sign-in, password reset and account changes. */
+/** Sign-in, password reset, account changes and the users they read (sign-up is in sign-up.ts). */
 import type { H3Event } from 'h3'
 import { and, eq, gt, isNull } from 'drizzle-orm'
-import type { SignInBody, SignUpBody } from '#shared/schemas/account'
+import type { SignInBody } from '#shared/schemas/account'
 import type { User } from '../db/schema'
 import { passwordResetMail } from './mail-messages'
 
@@ -32,7 +32,7 @@ export async function userByEmail(email: string): Promise<User | undefined> {
   return user
 }
 
-/** Creates an account; 409 when the e-mail is taken. */
+/** Creates an account (an accepted invitation); 409 when the e-mail is taken. */
 export async function createAccount(input: { name: string, email: string, password: string, role: User['role'] }): Promise<User> {
   const passwordHash = await hashPassword(input.password)
   try {
@@ -45,12 +45,6 @@ export async function createAccount(input: { name: string, email: string, passwo
     if (isDuplicateEntry(error)) throw emailTaken()
     throw error
   }
-}
-
-export async function signUp(event: H3Event, body: SignUpBody): Promise<User> {
-  const user = await createAccount(body)
-  await startSession(event, user)
-  return user
 }
 
 let decoyHash: Promise<string> | undefined

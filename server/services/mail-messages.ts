@@ -82,3 +82,31 @@ export function labSheetReviewedMail(to: string, name: string, title: string, ve
     html: html(paragraphs, { href: link, label: 'Open the sheet' }),
   }
 }
+
+export function signUpConfirmMail(to: string, name: string, link: string, hours: number): Mail {
+  const paragraphs = [
+    `Hello ${name},`,
+    `Open the link below to finish making your Phaseloom account with this address. It works once, for ${hours} hours.`,
+    'If you did not ask for an account, ignore this message: nothing is made without the link.',
+  ]
+  return {
+    to,
+    subject: 'Finish making your Phaseloom account',
+    text: `${paragraphs.join('\n\n')}\n\nFinish making the account: ${link}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: link, label: 'Finish making the account' }),
+  }
+}
+
+export function signUpTakenMail(to: string, signInLink: string, forgotLink: string): Mail {
+  const paragraphs = [
+    'Hello,',
+    'Someone tried to make a Phaseloom account with this address. If it was you, sign in or reset your password; if not, ignore this.',
+    'Your account stays as it is: no new account was made.',
+  ]
+  return {
+    to,
+    subject: 'Someone tried to make a Phaseloom account with your address',
+    text: `${paragraphs.join('\n\n')}\n\nSign in: ${signInLink}\nReset your password: ${forgotLink}\n\n-- Phaseloom\n`,
+    html: html(paragraphs, { href: signInLink, label: 'Sign in' }),
+  }
+}

@@ -8,7 +8,7 @@ import type { Bank, Class, User } from '../db/schema'
 export const BANK_ROLES = ['student', 'instructor', 'practitioner'] as const satisfies readonly Role[]
 
 /** Roles that can belong to a class and take its fault hunts. */
-export const MEMBER_ROLES = ['student', 'instructor'] as const satisfies readonly Role[]
+export { MEMBER_ROLES } from '../../shared/schemas/classes'
 
 export function sessionUserOf(user: Pick<User, 'id' | 'role' | 'name'>): SessionUser {
   return { id: user.id, role: user.role, name: user.name }

@@ -25,12 +25,18 @@ export const SignUpSchema = z.object({
   email,
   password,
   role: z.enum(SELF_SERVICE_ROLES, { error: 'choose student or practitioner' }),
+  /** A page of this site to open once the mailed link is followed (carried in the link). */
+  next: z.string().max(500).regex(/^\/(?![/\\])/, { error: 'not a page of this site' }).optional(),
 })
 export const SignInSchema = z.object({
   email,
   password: z.string({ error: 'password is required' }).min(1, { error: 'enter your password' }).max(200),
 })
 export const ForgotSchema = z.object({ email })
+/** The token of a sign-up link; any string, so a wrong one gets the same 404 as a used one. */
+export const ConfirmSignUpSchema = z.object({
+  token: z.string({ error: 'the sign-up link is incomplete' }).min(1, { error: 'the sign-up link is incomplete' }).max(200),
+})
 export const ResetSchema = z.object({
   token: z.string({ error: 'the reset link is incomplete' }).min(20, { error: 'the reset link is incomplete' }).max(200),
   password,

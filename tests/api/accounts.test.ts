@@ -4,9 +4,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { eq } from 'drizzle-orm'
 import { createDB } from '../../server/db/client'
-import { sessions } from '../../server/db/schema'
+import { sessions, users } from '../../server/db/schema'
 import { api, databaseURL } from './helpers'
-import { as, firstLink, mailTo, newPerson, PASSWORD, sessionCookie, signIn, uniqueEmail, type Person } from './people'
+import { as, confirmToken, firstLink, mailTo, newPerson, PASSWORD, sessionCookie, signIn, uniqueEmail, type Person } from './people'
 
 let admin: Person
 const db = createDB(databaseURL, { connectionLimit: 2 })
@@ -24,7 +24,8 @@ const sessionRows = (userId: number) => db.select().from(sessions).where(eq(sess
 describe('sign-up and the session', () => {
   it('starts a 7-day, HttpOnly, Secure, SameSite=Lax session holding only id, role and name', async () => {
     const email = uniqueEmail('session')
-    const response = await api('/api/auth/sign-up', { method: 'POST', json: { name: 'Ines Calloway', email, password: PASSWORD, role: 'practitioner' } })
+    expect((await api('/api/auth/sign-up', { method: 'POST', json: { name: 'Ines Calloway', email, password: PASSWORD, role: 'practitioner' } })).status).toBe(202)
+    const response = await api('/api/auth/confirm-sign-up', { method: 'POST', json: { token: confirmToken(await mailTo(email)) } })
     expect(response.status).toBe(201)
     expect(response.body).toEqual({ user: { id: expect.any(Number), name: 'Ines Calloway', role: 'practitioner' } })
     const header = response.headers.getSetCookie().find(h => h.startsWith('nuxt-session='))!
@@ -41,11 +42,12 @@ describe('sign-up and the session', () => {
     expect(session.text).not.toContain(email)
   })
 
-  it('answers 409 for an e-mail that is taken, whatever its case', async () => {
+  it('answers a taken e-mail, whatever its case, as any other (the owner gets a note) and makes no account', async () => {
     const person = await newPerson('student', databaseURL, 'taken')
     const again = await api('/api/auth/sign-up', { method: 'POST', json: { name: 'Again', email: person.email.toUpperCase(), password: PASSWORD, role: 'student' } })
-    expect(again.status).toBe(409)
-    expect(again.body.data.errors[0].path).toBe('email')
+    expect(again.status).toBe(202)
+    expect((await mailTo(person.email, { match: 'Someone tried' })).text).not.toContain('/sign-up/confirm')
+    expect((await db.select().from(users).where(eq(users.email, person.email))).map(u => u.name)).toEqual(['Test taken'])
   })
 
   it('signs out with 204 and a cleared cookie', async () => {

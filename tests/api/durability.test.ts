@@ -19,7 +19,7 @@ import { startServer } from '../../scripts/setup.mjs'
 import { parseCircuit } from '../../shared/circuit/parse'
 import { starterBySlug } from '../../shared/starters'
 import { api, scratchDir, type ApiInit } from './helpers'
-import { sessionCookie } from './people'
+import { signUpAndConfirm } from './people'
 
 const SAVES = 500
 const WORKERS = 4
@@ -142,10 +142,10 @@ describe('saves through crashes', () => {
   it(`keeps every acknowledged save of ${SAVES}, whole, with the app killed twice and the database once`, async () => {
     const cookies: string[] = []
     for (let i = 0; i < WORKERS; i++) {
-      const signUp = await api('/api/auth/sign-up', { base: appURL(), method: 'POST', json: { name: `Durable ${i}`, email: `durable-${i}@phaseloom.test`, password: 'correct-horse-battery', role: 'practitioner' } })
-      expect(signUp.status, signUp.text).toBe(201)
-      owners.push(signUp.body.user.id)
-      cookies.push(sessionCookie(signUp))
+      // this server has no mail catcher: the sign-up link is read from the message it queued
+      const made = await signUpAndConfirm({ name: `Durable ${i}`, email: `durable-${i}@phaseloom.test`, password: 'correct-horse-battery', role: 'practitioner' }, { base: appURL(), queueDatabaseURL: database!.url })
+      owners.push(made.id)
+      cookies.push(made.cookie)
     }
 
     // three crashes at random points of the run: the app, the database, the app

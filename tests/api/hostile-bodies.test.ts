@@ -63,6 +63,7 @@ function bodies(keys: string[]) {
 type Who = 'anonymous' | 'student' | 'instructor' | 'admin'
 const routes: { method: string, path: () => string, who: Who, keys: string[] }[] = [
   { method: 'POST', path: () => '/api/auth/sign-up', who: 'anonymous', keys: ['name', 'email', 'password', 'role'] },
+  { method: 'POST', path: () => '/api/auth/confirm-sign-up', who: 'anonymous', keys: ['token'] },
   { method: 'POST', path: () => '/api/auth/sign-in', who: 'anonymous', keys: ['email', 'password'] },
   { method: 'POST', path: () => '/api/auth/forgot', who: 'anonymous', keys: ['email'] },
   { method: 'POST', path: () => '/api/auth/reset', who: 'anonymous', keys: ['token', 'password'] },

@@ -56,7 +56,8 @@ const anyone = (status: number): Expect => [status, status, status, status, stat
 const badToken = 'no-such-token-0123456789abcdefghij'
 
 const rows: Row[] = [
-  { route: 'POST /api/auth/sign-up', request: () => ({ path: '/api/auth/sign-up', method: 'POST', json: { name: 'Matrix Newcomer', email: uniqueEmail('matrix-new'), password: PASSWORD, role: 'student' } }), expect: anyone(201) },
+  { route: 'POST /api/auth/sign-up', request: () => ({ path: '/api/auth/sign-up', method: 'POST', json: { name: 'Matrix Newcomer', email: uniqueEmail('matrix-new'), password: PASSWORD, role: 'student' } }), expect: anyone(202) },
+  { route: 'POST /api/auth/confirm-sign-up', request: () => ({ path: '/api/auth/confirm-sign-up', method: 'POST', json: { token: badToken } }), expect: anyone(404) },
   { route: 'POST /api/auth/sign-in', request: () => ({ path: '/api/auth/sign-in', method: 'POST', json: { email: uniqueEmail('matrix-nobody'), password: 'not-the-password' } }), expect: anyone(401) },
   { route: 'POST /api/auth/forgot', request: () => ({ path: '/api/auth/forgot', method: 'POST', json: { email: uniqueEmail('matrix-forgot') } }), expect: anyone(202) },
   { route: 'POST /api/auth/reset', request: () => ({ path: '/api/auth/reset', method: 'POST', json: { token: badToken, password: PASSWORD } }), expect: anyone(400) },

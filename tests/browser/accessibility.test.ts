@@ -57,7 +57,7 @@ async function violations(role: Role, path: string) {
 
 describe('accessibility (axe-core): no serious or critical violations', () => {
   it.each([
-    '/', '/starters', '/bench', '/bench?starter=high-leg-delta-240-120', '/sign-in', '/sign-up', '/forgot', '/reset?token=not-a-real-token-0123456789', '/no-such-page',
+    '/', '/starters', '/bench', '/bench?starter=high-leg-delta-240-120', '/sign-in', '/sign-up', '/forgot', '/reset?token=not-a-real-token-0123456789', '/sign-up/confirm?token=not-a-real-token-0123456789', '/no-such-page',
   ])('anonymous %s', async (path) => {
     expect(await violations('anonymous', path)).toEqual([])
   })

@@ -2,7 +2,7 @@
 // account page of one ends both, and that browser lands on the sign-in page.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { launch, screenshot, type Browser } from './helpers'
+import { launch, screenshot, signUpByMail, type Browser } from './helpers'
 
 let laptop: Browser
 let phone: Browser
@@ -16,7 +16,7 @@ beforeAll(async () => {
   phone = await launch()
   page = await laptop.newPage()
   other = await phone.newPage()
-  expect((await page.request.post('/api/auth/sign-up', { data: { name: 'Everywhere Tester', email, password, role: 'practitioner' } })).status()).toBe(201)
+  await signUpByMail(page, { name: 'Everywhere Tester', email, password, role: 'practitioner' })
   expect((await other.request.post('/api/auth/sign-in', { data: { email, password } })).status()).toBe(200)
 })
 afterAll(async () => {

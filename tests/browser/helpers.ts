@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import { confirmToken, signUpMail } from '../api/people'
 
 export const baseURL = process.env.PHASELOOM_BASE_URL ?? ''
 if (!baseURL) {
@@ -57,4 +58,15 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const path = join(resultsDir, `${name}.png`)
   await page.screenshot({ path, fullPage: true })
   return path
+}
+
+/**
+ * Makes an account through the API as the sign-up page does, follows the mailed link (read
+ * from the mail catcher) and leaves `page`'s browser signed in as it.
+ */
+export async function signUpByMail(page: Page, body: { name: string, email: string, password: string, role: 'student' | 'practitioner' }): Promise<void> {
+  const sent = await page.request.post('/api/auth/sign-up', { data: body })
+  if (sent.status() !== 202) throw new Error(`sign-up answered ${sent.status()}: ${await sent.text()}`)
+  const made = await page.request.post('/api/auth/confirm-sign-up', { data: { token: confirmToken(await signUpMail(body.email)) } })
+  if (made.status() !== 201) throw new Error(`confirm-sign-up answered ${made.status()}: ${await made.text()}`)
 }

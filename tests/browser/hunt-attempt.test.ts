@@ -4,7 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { request, type APIRequestContext, type Page } from 'playwright-core'
 import { starterBySlug } from '../../shared/starters'
-import { baseURL, launch, screenshot, type Browser } from './helpers'
+import { baseURL, launch, screenshot, signUpByMail, type Browser } from './helpers'
 
 let browser: Browser
 let page: Page
@@ -30,7 +30,7 @@ beforeAll(async () => {
   page = await browser.newPage()
   await page.setViewportSize({ width: 1600, height: 1000 })
   const email = `hunter-${Date.now()}@phaseloom.test`
-  await ok(page.request.post('/api/auth/sign-up', { data: { name: 'Hunt Student', email, password: 'correct-horse-battery', role: 'student' } }))
+  await signUpByMail(page, { name: 'Hunt Student', email, password: 'correct-horse-battery', role: 'student' })
   await ok(page.request.post('/api/classes/join', { data: { code: klass.joinCode } }))
   attemptId = (await ok(page.request.post(`/api/hunts/${hunt.id}/attempts`))).id
 })

@@ -5,6 +5,7 @@ import { statSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page, Response } from 'playwright-core'
 import { starterBySlug } from '../../shared/starters'
+import { firstLink, mailTo } from '../api/people'
 import { launch, screenshot, type Browser } from './helpers'
 
 const stamp = Date.now()
@@ -60,6 +61,9 @@ describe('a fault hunt from class to start', () => {
     await student.getByLabel('E-mail').fill(studentEmail)
     await student.getByLabel('Password').fill('a long enough password')
     await student.getByRole('button', { name: /make|create|sign up/i }).click()
+    await student.getByRole('heading', { name: 'Check your e-mail' }).waitFor()
+    // the mailed link carries the page to come back to
+    await student.goto(firstLink((await mailTo(studentEmail)).text).href)
     await student.waitForURL(/\/classes$/)
     // typed in lower case: the form and the server take it as the instructor wrote it
     await student.getByLabel('Class code').fill(joinCode.toLowerCase())

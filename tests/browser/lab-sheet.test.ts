@@ -5,7 +5,7 @@ import { join } from 'node:path'
 import sharp from 'sharp'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { launch, resultsDir, screenshot, type Browser } from './helpers'
+import { launch, resultsDir, screenshot, signUpByMail, type Browser } from './helpers'
 
 let browser: Browser
 let page: Page
@@ -15,8 +15,7 @@ beforeAll(async () => {
   page = await browser.newPage()
   await page.setViewportSize({ width: 1400, height: 1000 })
   const email = `sheet-${Date.now()}@phaseloom.test`
-  const signUp = await page.request.post('/api/auth/sign-up', { data: { name: 'Sheet Student', email, password: 'correct-horse-battery', role: 'student' } })
-  expect(signUp.status()).toBe(201)
+  await signUpByMail(page, { name: 'Sheet Student', email, password: 'correct-horse-battery', role: 'student' })
 })
 afterAll(async () => {
   await browser?.close()

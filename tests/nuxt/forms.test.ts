@@ -46,8 +46,8 @@ describe('the sign-up form', () => {
       method: 'POST',
       handler: async (event) => {
         const body = await readBody(event)
-        setResponseStatus(event, 409)
-        throw createError({ statusCode: 409, statusMessage: 'E-mail already registered', data: { errors: [{ path: 'email', message: `an account with ${body.email} already exists` }] } })
+        setResponseStatus(event, 400)
+        throw createError({ statusCode: 400, statusMessage: 'Invalid input', data: { errors: [{ path: 'email', message: `${body.email} is not an address we can send to` }] } })
       },
     })
     const wrapper = await mountSuspended(SignUpPage)
@@ -58,14 +58,37 @@ describe('the sign-up form', () => {
     await flushPromises()
     await new Promise(resolve => setTimeout(resolve, 50))
     await flushPromises()
-    expect(fieldError(wrapper, 'email')).toContain('an account with student@phaseloom.test already exists')
-    expect(wrapper.text()).toContain('E-mail already registered')
+    expect(fieldError(wrapper, 'email')).toContain('student@phaseloom.test is not an address we can send to')
+    expect(wrapper.text()).toContain('Invalid input')
     expect((wrapper.get('input[name="name"]').element as HTMLInputElement).value).toBe('Priya Lindqvist')
     expect((wrapper.get('input[name="password"]').element as HTMLInputElement).value).toBe('long-enough-password')
 
     // typing in the field clears the server's complaint about it
     await wrapper.get('input[name="email"]').setValue('priya@riverbend.test')
     expect(fieldError(wrapper, 'email')).toBe('')
+  })
+  it('says to check the mail, naming the address typed, once the server has it', async () => {
+    let sent: Record<string, unknown> = {}
+    registerEndpoint('/api/auth/sign-up', {
+      method: 'POST',
+      handler: async (event) => {
+        sent = await readBody(event)
+        setResponseStatus(event, 202)
+        return { accepted: true, message: 'Check your e-mail: we sent a link to finish making the account.' }
+      },
+    })
+    const wrapper = await mountSuspended(SignUpPage)
+    await wrapper.get('input[name="name"]').setValue('Priya Lindqvist')
+    await wrapper.get('input[name="email"]').setValue('priya@riverbend.test')
+    await wrapper.get('input[name="password"]').setValue('long-enough-password')
+    await wrapper.get('form').trigger('submit')
+    await flushPromises()
+    await new Promise(resolve => setTimeout(resolve, 50))
+    await flushPromises()
+    expect(sent).toMatchObject({ name: 'Priya Lindqvist', email: 'priya@riverbend.test', role: 'student' })
+    expect(wrapper.get('[data-testid="sign-up-sent"]').text()).toContain('Check your e-mail')
+    expect(wrapper.get('[data-testid="sign-up-sent"]').text()).toContain('priya@riverbend.test')
+    expect(wrapper.find('form').exists()).toBe(false)
   })
 })
 
