@@ -2,13 +2,14 @@ import type { H3Event } from 'h3'
 import { randomBytes } from 'node:crypto'
 import { and, eq, gt, isNotNull, isNull, lte, or, sql } from 'drizzle-orm'
 import type { Role, SessionUser } from '#shared/schemas/account'
+import { MEMBER_ROLES as MEMBER_ROLE_LIST } from '#shared/schemas/classes'
 import type { Bank, Class, User } from '../db/schema'
 
 /** Roles that keep banks of their own (admins look after people, not banks). */
 export const BANK_ROLES = ['student', 'instructor', 'practitioner'] as const satisfies readonly Role[]
 
 /** Roles that can belong to a class and take its fault hunts. */
-export { MEMBER_ROLES } from '../../shared/schemas/classes'
+export const MEMBER_ROLES = MEMBER_ROLE_LIST
 
 export function sessionUserOf(user: Pick<User, 'id' | 'role' | 'name'>): SessionUser {
   return { id: user.id, role: user.role, name: user.name }
