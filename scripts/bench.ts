@@ -19,7 +19,7 @@ import { accessSync, constants, mkdtempSync, rmSync, writeFileSync } from 'node:
 import { cpus, loadavg, tmpdir } from 'node:os'
 import { delimiter, join } from 'node:path'
 import { buildBank, type BankSpec } from '../shared/banks/build'
-import { generateNetwork } from '../shared/banks/network'
+import { generateNetwork } from '../shared/banks/benchmark-network'
 import type { CircuitInput } from '../shared/circuit/schema'
 import { solve, toSpiceNetlist, type SolveResult } from '../shared/engine'
 import { parseCircuit } from '../shared/circuit/parse'

@@ -6,7 +6,8 @@
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { ensureAptPackage, ensureMariaDB, freePort } from './db.mjs'
+import { ensureAptPackage } from './apt.mjs'
+import { ensureMariaDB, freePort } from './db.mjs'
 import { bin, buildIfStale, ensureNodeModules, root, runInherit, startServer } from './setup.mjs'
 
 const step = message => console.log(`\n▸ ${message}`)

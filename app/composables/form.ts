@@ -16,6 +16,12 @@ export function apiErrorOf(error: unknown): { status: number, message: string, e
   }
 }
 
+/** The answer's message with the field errors after it, in one line: "Invalid body: the bank has no T9". */
+export function apiErrorText(error: unknown): string {
+  const { message, errors } = apiErrorOf(error)
+  return [message, errors.map(e => e.message).join('; ')].filter(Boolean).join(': ')
+}
+
 /**
  * A form checked with a shared zod schema as the user types: a field shows its error once it
  * has been typed in (or after a submit). What was typed stays after a server error, and the

@@ -9,6 +9,7 @@ import { ref, shallowRef } from 'vue'
 import type { Circuit } from '#shared/circuit/schema'
 import type { ProtectionEvent } from '#shared/engine'
 import type { Diagnosis } from '#shared/hunts/faults'
+import { apiErrorText } from '~/composables/form'
 
 export interface ProbeReading {
   from: string
@@ -51,8 +52,6 @@ function electricalKey(doc: Circuit): string {
   return JSON.stringify([doc.wires, devices])
 }
 
-function messageOf(error: unknown): string {
-  const e = error as { data?: { statusMessage?: string; data?: { errors?: { message: string }[] } }; statusMessage?: string }
   const detail = e.data?.data?.errors?.map((x) => x.message).join('; ')
   return [e.data?.statusMessage ?? e.statusMessage ?? 'The server did not answer', detail].filter(Boolean).join(': ')
 }
@@ -118,7 +117,7 @@ export const useAttemptStore = defineStore('attempt', () => {
         take(await callApi<Outcome>(`/api/attempts/${id}/energize`, { method: 'POST', body: { document: bench.doc } }))
         error.value = null
       } catch (e) {
-        error.value = messageOf(e)
+        error.value = apiErrorText(e)
       } finally {
         busy.value = false
       }
@@ -138,7 +137,7 @@ export const useAttemptStore = defineStore('attempt', () => {
         error.value = null
         return reading
       } catch (e) {
-        error.value = messageOf(e)
+        error.value = apiErrorText(e)
         return null
       } finally {
         busy.value = false
@@ -178,7 +177,7 @@ export const useAttemptStore = defineStore('attempt', () => {
       if (bench.hunt) bench.hunt = { ...bench.hunt, locked: true }
       error.value = null
     } catch (e) {
-      error.value = messageOf(e)
+      error.value = apiErrorText(e)
     } finally {
       busy.value = false
     }
