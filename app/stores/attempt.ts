@@ -52,10 +52,6 @@ function electricalKey(doc: Circuit): string {
   return JSON.stringify([doc.wires, devices])
 }
 
-  const detail = e.data?.data?.errors?.map((x) => x.message).join('; ')
-  return [e.data?.statusMessage ?? e.statusMessage ?? 'The server did not answer', detail].filter(Boolean).join(': ')
-}
-
 export const useAttemptStore = defineStore('attempt', () => {
   const bench = useBenchStore()
   const view = shallowRef<AttemptView | null>(null)
