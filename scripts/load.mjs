@@ -26,6 +26,7 @@ import { setTimeout as sleep } from 'node:timers/promises'
 import autocannon from 'autocannon'
 import { ensureMariaDB, freePort } from './db.mjs'
 import { buildIfStale, ensureNodeModules, startServer } from './setup.mjs'
+import { loadMesh } from './load-mesh.mjs'
 
 /** The token of the sign-up link mailed to `email`, read from the mail catcher's directory (waits up to 15 s). */
 async function signUpToken(dir, email) {
@@ -291,30 +292,6 @@ async function abuseCase(allCases) {
   }
 }
 
-/** A mesh of `loads` loads among `nodes` nodes fed by a 480 V delta supply (the same as tests/api/engine-pool.test.ts). */
-function loadMesh(nodes, loads) {
-  const components = [{ id: 'S1', kind: 'supply', connection: 'delta', lineVolts: 480 }]
-  const wires = []
-  const first = []
-  let seed = 7
-  const next = () => {
-    seed = (seed * 1103515245 + 12345) % 2147483648
-    return seed / 2147483648
-  }
-  for (let j = 0; j < loads; j++) {
-    const u = j < nodes ? j : Math.floor(next() * nodes)
-    let v = j < nodes ? (j + 1) % nodes : Math.floor(next() * nodes)
-    if (v === u) v = (u + 1) % nodes
-    components.push({ id: `L${j}`, kind: 'load', ohms: 10 + (j % 7) })
-    for (const [end, node] of [['a', u], ['b', v]]) {
-      const terminal = `L${j}.${end}`
-      if (first[node] === undefined) first[node] = terminal
-      else wires.push([first[node], terminal])
-    }
-  }
-  wires.push(['S1.A', first[0]], ['S1.B', first[Math.floor(nodes / 3)]], ['S1.C', first[Math.floor((2 * nodes) / 3)]])
-  return { format: 'phaseloom.circuit', version: 1, name: 'load mesh', components, wires }
-}
 
 /** The two documents, built by the app's own starters (shared/starters.ts) through esbuild. */
 async function fixtures() {

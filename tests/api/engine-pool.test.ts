@@ -12,33 +12,10 @@ import { starterBySlug } from '../../shared/starters'
 import { resultsDir, startServer } from './servers'
 import { api, baseURL, databaseURL } from './helpers'
 import { newPerson, type Person } from './people'
+import { loadMesh } from '../../scripts/load-mesh.mjs'
 
 const example = JSON.parse(readFileSync(new URL('../../examples/one-unit-series.json', import.meta.url), 'utf8'))
 
-/** A mesh of loads among `nodes` nodes fed by a 480 V supply: the kind of document that keeps the engine busy. */
-export function loadMesh(nodes: number, loads: number) {
-  const components: Record<string, unknown>[] = [{ id: 'S1', kind: 'supply', connection: 'delta', lineVolts: 480 }]
-  const wires: [string, string][] = []
-  const first: string[] = []
-  let seed = 7
-  const next = () => {
-    seed = (seed * 1103515245 + 12345) % 2147483648
-    return seed / 2147483648
-  }
-  for (let j = 0; j < loads; j++) {
-    const u = j < nodes ? j : Math.floor(next() * nodes)
-    let v = j < nodes ? (j + 1) % nodes : Math.floor(next() * nodes)
-    if (v === u) v = (u + 1) % nodes
-    components.push({ id: `L${j}`, kind: 'load', ohms: 10 + (j % 7) })
-    for (const [end, node] of [['a', u], ['b', v]] as const) {
-      const terminal = `L${j}.${end}`
-      if (first[node] === undefined) first[node] = terminal
-      else wires.push([first[node]!, terminal])
-    }
-  }
-  wires.push(['S1.A', first[0]!], ['S1.B', first[Math.floor(nodes / 3)]!], ['S1.C', first[Math.floor((2 * nodes) / 3)]!])
-  return { format: 'phaseloom.circuit', version: 1, name: 'load mesh', components, wires }
-}
 
 /** POST /api/solve from another loopback address than the other tests use, so its count is its own. */
 function solveFrom(localAddress: string, body: unknown): Promise<{ status: number, retryAfter: string | undefined, body: any }> {

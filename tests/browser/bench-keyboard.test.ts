@@ -2,16 +2,13 @@
 // the jumper tags, and the focus stays put (or moves next door) after undo, redo and save.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { launch, screenshot, type Browser } from './helpers'
+import { launchBenchPage, screenshot, type Browser } from './helpers'
 
 let browser: Browser
 let page: Page
 
 beforeAll(async () => {
-  browser = await launch()
-  page = await browser.newPage()
-  await page.setViewportSize({ width: 1600, height: 1000 })
-  page.on('dialog', (dialog) => void dialog.accept())
+  ;({ browser, page } = await launchBenchPage())
 })
 afterAll(async () => {
   await browser?.close()

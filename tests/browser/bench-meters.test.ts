@@ -3,17 +3,13 @@
 // (the Bench asks before energizing and names the output voltage), and the new meters from the tray.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { launch, screenshot, type Browser } from './helpers'
+import { launchBenchPage, screenshot, type Browser } from './helpers'
 
 let browser: Browser
 let page: Page
 
 beforeAll(async () => {
-  browser = await launch()
-  page = await browser.newPage()
-  await page.setViewportSize({ width: 1600, height: 1000 })
-  // leaving an edited, unsaved bank asks first (beforeunload): the tests move on
-  page.on('dialog', (dialog) => void dialog.accept())
+  ;({ browser, page } = await launchBenchPage())
 })
 afterAll(async () => {
   await browser?.close()

@@ -2,17 +2,13 @@
 // and closing a delta onto a reversed unit. A screenshot of each state goes to test-results/.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { launch, screenshot, type Browser } from './helpers'
+import { launchBenchPage, screenshot, type Browser } from './helpers'
 
 let browser: Browser
 let page: Page
 
 beforeAll(async () => {
-  browser = await launch()
-  page = await browser.newPage()
-  await page.setViewportSize({ width: 1600, height: 1000 })
-  // leaving an edited, unsaved bank asks first (beforeunload): the tests move on
-  page.on('dialog', (dialog) => void dialog.accept())
+  ;({ browser, page } = await launchBenchPage())
 })
 afterAll(async () => {
   await browser?.close()

@@ -52,6 +52,18 @@ export async function launch(): Promise<Browser> {
   }
 }
 
+/**
+ * Chromium with one page at 1600 × 1000, as the Bench tests use it: leaving an edited, unsaved
+ * bank asks first (beforeunload), and the tests accept and move on.
+ */
+export async function launchBenchPage(): Promise<{ browser: Browser, page: Page }> {
+  const browser = await launch()
+  const page = await browser.newPage()
+  await page.setViewportSize({ width: 1600, height: 1000 })
+  page.on('dialog', dialog => void dialog.accept())
+  return { browser, page }
+}
+
 /** Save a full-page screenshot as test-results/<name>.png and return its path. */
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(resultsDir, { recursive: true })
